@@ -1,0 +1,5 @@
+/** Only same-site paths are followed after sign-in, so a crafted link cannot send people elsewhere. */
+export function safeNext(next: string | null | undefined, fallback = '/account'): string {
+  if (!next || !next.startsWith('/') || next.startsWith('//') || next.startsWith('/\\')) return fallback;
+  return next;
+}

@@ -1,0 +1,54 @@
+import { z } from 'zod';
+
+const flag = z
+  .enum(['0', '1', 'true', 'false', ''])
+  .default('0')
+  .transform((v) => v === '1' || v === 'true');
+
+export const ConfigSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  APP_ORIGIN: z.string().url().default('http://localhost:4321'),
+  DATABASE_URL: z
+    .string()
+    .regex(/^(file:|libsql:|https?:|wss?:)/, 'must be a file:, libsql:, http(s): or ws(s): URL')
+    .default('file:./data/lightyard.db'),
+  DATABASE_AUTH_TOKEN: z.string().optional(),
+  SMTP_HOST: z.string().default('127.0.0.1'),
+  SMTP_PORT: z.coerce.number().int().positive().default(2525),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASSWORD: z.string().optional(),
+  SMTP_SECURE: flag,
+  SMTP_IGNORE_TLS: flag,
+  MAIL_FROM: z.string().default('Lightyard <no-reply@lightyard.example>'),
+  MAIL_DIR: z.string().default('./data/mail'),
+  S3_ENDPOINT: z.string().url().optional(),
+  S3_REGION: z.string().default('us-east-1'),
+  S3_BUCKET: z.string().default('lightyard'),
+  S3_ACCESS_KEY_ID: z.string().default('S3RVER'),
+  S3_SECRET_ACCESS_KEY: z.string().default('S3RVER'),
+  STRIPE_SECRET_KEY: z.string().default('sk_test_lightyard_fake'),
+  STRIPE_API_BASE: z.string().url().optional(),
+  STRIPE_WEBHOOK_SECRET: z.string().default('whsec_lightyard_local_fake'),
+  FAKES: flag,
+  TRUST_PROXY: flag,
+});
+
+export type Config = z.infer<typeof ConfigSchema>;
+
+let cached: Config | undefined;
+
+/** Parses the environment once; a bad value stops the app with the variable named. */
+export function getConfig(): Config {
+  if (cached) return cached;
+  const parsed = ConfigSchema.safeParse(process.env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new Error(`Invalid configuration:\n${lines.join('\n')}`);
+  }
+  cached = parsed.data;
+  return cached;
+}
+
+export function isSecureOrigin(config: Config = getConfig()): boolean {
+  return config.APP_ORIGIN.startsWith('https://');
+}

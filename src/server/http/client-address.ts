@@ -1,0 +1,15 @@
+import type { APIContext } from 'astro';
+import { getConfig } from '../config';
+
+/** The caller's address; behind a trusted proxy, the first X-Forwarded-For entry. */
+export function clientAddress(ctx: Pick<APIContext, 'request' | 'clientAddress'>): string {
+  if (getConfig().TRUST_PROXY) {
+    const forwarded = ctx.request.headers.get('x-forwarded-for')?.split(',')[0]?.trim();
+    if (forwarded) return forwarded;
+  }
+  try {
+    return ctx.clientAddress;
+  } catch {
+    return 'unknown';
+  }
+}

@@ -1,0 +1,134 @@
+/**
+ * Starts a real app for a test file: its own temp folder, the fakes on ephemeral ports, a libSQL file
+ * migrated from drizzle/ and seeded by the demo factories, and the built server as a child process.
+ */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { createServer } from 'node:net';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { loopbackOrigins, startAllFakes, type RunningFakes } from '../../fakes/start';
+
+export interface TestApp {
+  origin: string;
+  dir: string;
+  mailDir: string;
+  env: Record<string, string>;
+  fakes: RunningFakes;
+  stop(): Promise<void>;
+}
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = createServer();
+    srv.listen(0, '127.0.0.1', () => {
+      const { port } = srv.address() as { port: number };
+      srv.close(() => resolve(port));
+    });
+    srv.on('error', reject);
+  });
+}
+
+async function waitUntilUp(origin: string, child: ChildProcess, log: () => string) {
+  const until = Date.now() + 30_000;
+  while (Date.now() < until) {
+    if (child.exitCode !== null) throw new Error(`The app exited early:\n${log()}`);
+    try {
+      const r = await fetch(`${origin}/cautions`);
+      if (r.ok) return;
+    } catch {
+      // not listening yet
+    }
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  throw new Error(`The app did not start:\n${log()}`);
+}
+
+export async function startTestApp(opts: { seed?: boolean; env?: Record<string, string> } = {}): Promise<TestApp> {
+  const dir = mkdtempSync(join(tmpdir(), 'lightyard-test-'));
+  const mailDir = join(dir, 'mail');
+  const port = await freePort();
+  const origin = `http://127.0.0.1:${port}`;
+  const fakes = await startAllFakes({
+    mail: { host: '127.0.0.1', port: 0, dir: mailDir },
+    s3: { host: '127.0.0.1', port: 0, dir: join(dir, 's3'), bucket: 'lightyard', allowedOrigins: loopbackOrigins(origin) },
+    stripe: { host: '127.0.0.1', port: 0, dir: join(dir, 'stripe'), webhookUrl: `${origin}/api/webhooks/stripe`, webhookSecret: 'whsec_test' },
+  });
+  const env: Record<string, string> = {
+    NODE_ENV: 'production',
+    HOST: '127.0.0.1',
+    PORT: String(port),
+    APP_ORIGIN: origin,
+    DATABASE_URL: `file:${join(dir, 'lightyard.db')}`,
+    SMTP_HOST: '127.0.0.1',
+    SMTP_PORT: String(fakes.ports.smtp),
+    SMTP_IGNORE_TLS: '1',
+    MAIL_DIR: mailDir,
+    S3_ENDPOINT: `http://127.0.0.1:${fakes.ports.s3}`,
+    S3_BUCKET: 'lightyard',
+    STRIPE_API_BASE: `http://127.0.0.1:${fakes.ports.stripe}`,
+    STRIPE_WEBHOOK_SECRET: 'whsec_test',
+    FAKES: '1',
+    ...opts.env,
+  };
+  Object.assign(process.env, env);
+  const { migrateDatabase } = await import('../../src/server/db/migrate');
+  const { closeDb } = await import('../../src/server/db/client');
+  await migrateDatabase();
+  if (opts.seed !== false) {
+    const { seedDemo } = await import('../../src/server/db/seed');
+    await seedDemo();
+  }
+  let output = '';
+  const child = spawn(process.execPath, ['dist/server/entry.mjs'], { env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
+  child.stdout!.on('data', (d) => (output += d));
+  child.stderr!.on('data', (d) => (output += d));
+  await waitUntilUp(origin, child, () => output);
+  return {
+    origin,
+    dir,
+    mailDir,
+    env,
+    fakes,
+    async stop() {
+      child.kill('SIGTERM');
+      await new Promise((r) => (child.exitCode !== null ? r(null) : child.once('exit', r)));
+      await fakes.stop();
+      await closeDb();
+      rmSync(dir, { recursive: true, force: true });
+    },
+  };
+}
+
+/** A fetch client with a cookie jar of its own, like one browser. */
+export class Client {
+  cookies = new Map<string, string>();
+  constructor(readonly origin: string) {}
+
+  async request(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<Response> {
+    // Like a browser, send Origin on every non-GET request (the app's origin check relies on it).
+    const h: Record<string, string> = method === 'GET' ? { ...headers } : { origin: this.origin, ...headers };
+    if (body !== undefined) h['content-type'] ??= 'application/json';
+    if (this.cookies.size) h.cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
+    const res = await fetch(this.origin + path, {
+      method,
+      headers: h,
+      body: body === undefined ? undefined : typeof body === 'string' ? body : JSON.stringify(body),
+      redirect: 'manual',
+    });
+    for (const c of res.headers.getSetCookie()) {
+      const [pair] = c.split(';');
+      const [k, v] = pair!.split('=');
+      if (!v) this.cookies.delete(k!);
+      else this.cookies.set(k!, v);
+    }
+    return res;
+  }
+  get = (path: string) => this.request('GET', path);
+  post = (path: string, body: unknown = {}) => this.request('POST', path, body);
+  del = (path: string) => this.request('DELETE', path);
+
+  async signIn(email: string, password: string): Promise<Response> {
+    return this.post('/api/auth/sign-in', { email, password });
+  }
+}
