@@ -44,10 +44,10 @@ async function waitUntilUp(origin: string, child: ChildProcess, log: () => strin
   throw new Error(`The app did not start:\n${log()}`);
 }
 
-export async function startTestApp(opts: { seed?: boolean; env?: Record<string, string> } = {}): Promise<TestApp> {
-  const dir = mkdtempSync(join(tmpdir(), 'lightyard-test-'));
+export async function startTestApp(opts: { seed?: boolean; env?: Record<string, string>; dir?: string; port?: number } = {}): Promise<TestApp> {
+  const dir = opts.dir ?? mkdtempSync(join(tmpdir(), 'lightyard-test-'));
   const mailDir = join(dir, 'mail');
-  const port = await freePort();
+  const port = opts.port ?? (await freePort());
   const origin = `http://127.0.0.1:${port}`;
   const fakes = await startAllFakes({
     mail: { host: '127.0.0.1', port: 0, dir: mailDir },

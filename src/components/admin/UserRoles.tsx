@@ -22,12 +22,19 @@ function RoleToggle({ user, role }: { user: UserRow; role: RoleName }) {
   const m = useMutation<unknown, ApiError>({
     mutationFn: () =>
       has ? api(`/api/admin/users/${user.id}/roles/${role}`, { method: 'DELETE' }) : api(`/api/admin/users/${user.id}/roles`, { body: { role } }),
-    onSettled: () => qc.invalidateQueries({ queryKey: ['admin-users'] }),
+    onSuccess: () =>
+      qc.setQueriesData<{ users: UserRow[] }>({ queryKey: ['admin-users'] }, (old) =>
+        old && {
+          users: old.users.map((u) => (u.id === user.id ? { ...u, roles: has ? u.roles.filter((r) => r !== role) : [...u.roles, role].sort() } : u)),
+        },
+      ),
   });
+  // Shown as changed while the request runs; the server's answer settles it.
+  const checked = m.isPending ? !has : has;
   return (
     <span className="inline-flex flex-col">
       <label className="inline-flex items-center gap-1.5 text-sm">
-        <input type="checkbox" checked={has} disabled={m.isPending} onChange={() => m.mutate()} aria-label={`${ROLE_LABELS[role]} role for ${user.email}`} />
+        <input type="checkbox" checked={checked} disabled={m.isPending} onChange={() => m.mutate()} aria-label={`${ROLE_LABELS[role]} role for ${user.email}`} />
         {ROLE_LABELS[role]}
       </label>
       {m.error && (
@@ -81,7 +88,7 @@ function Roles() {
       </label>
       <input id="user-filter" className="field-input mb-4 max-w-sm" type="search" value={q} onChange={(e) => setQ(e.target.value)} placeholder="E-mail or name" />
       {users.error && <FormMessage kind="bad">{users.error.message}</FormMessage>}
-      <div className="overflow-x-auto">
+      <div className="table-scroll">
         <table className="data-table">
           <thead>
             {table.getHeaderGroups().map((hg) => (

@@ -9,7 +9,7 @@ import { api, ApiError } from '../../lib/api-client';
  * Field errors from the server land on their fields; anything else becomes the form's message.
  */
 export function useApiForm<TIn extends FieldValues, TOut, TRes = unknown>(opts: {
-  schema: ZodType<TOut, ZodTypeDef, TIn>;
+  schema: ZodType<TOut, ZodTypeDef & { typeName: string }, TIn>;
   path: string | ((values: TOut) => string);
   method?: string;
   defaultValues?: Partial<TIn>;
