@@ -128,7 +128,7 @@ export function finesseFwhm(input: MirrorPairInput): number {
       'R1·R2·(1 − extraLoss) is below 0.0294: the transmission peak never falls to half maximum, so the FWHM finesse is undefined',
     );
   }
-  return Math.PI / (2 * Math.asin(arg));
+  return finiteResult('r1', Math.PI / (2 * Math.asin(arg)), 'FWHM finesse');
 }
 
 /** Form 1.5, the low-loss approximation ℱ ≈ 2π/𝓛 with 𝓛 = T1 + T2 + A1 + A2 + L_rt. */
@@ -237,9 +237,8 @@ export function requiredReflectivity(input: { finesse: number; r1?: number; extr
 export function lossBudgetLowLoss(input: { finesse: number; loss1?: number; extraLoss?: number }): LossBudget {
   const f = positive('finesse', input.finesse);
   const extraLoss = extraLossOf(input.extraLoss);
-  const total = (2 * Math.PI) / f;
-  const budget =
-    input.loss1 === undefined ? (total - extraLoss) / 2 : total - powerFraction('loss1', input.loss1) - extraLoss;
+  const total = finiteResult('finesse', (2 * Math.PI) / f, 'loss budget');
+  const budget = input.loss1 === undefined ? (total - extraLoss) / 2 : total - powerFraction('loss1', input.loss1) - extraLoss;
   if (budget <= 0) {
     return { feasible: false, lossBudget: budget, reason: `the other losses alone limit the finesse below ${f}` };
   }
@@ -283,7 +282,7 @@ function transmissionPair(input: TransmissionPairInput): { t1: number; t2: numbe
 /** Form 1.12, on-resonance transmission (mode-matched) T1·T2·√(1 − L_rt)/(1 − √ρ)². */
 export function resonantTransmission(input: TransmissionPairInput): number {
   const { t1, t2, extraLoss, d } = transmissionPair(input);
-  return finiteResult('t1', ((t1 / d) * (t2 / d)) * Math.sqrt(1 - extraLoss), 'resonant transmission');
+  return finiteResult('t1', (t1 / d) * (t2 / d) * Math.sqrt(1 - extraLoss), 'resonant transmission');
 }
 
 /** Form 1.13, circulating-power build-up P_circ/P_in = T1/(1 − √ρ)². */
@@ -291,4 +290,3 @@ export function buildUp(input: TransmissionPairInput): number {
   const { t1, d } = transmissionPair(input);
   return finiteResult('t1', t1 / d / d, 'build-up');
 }
-

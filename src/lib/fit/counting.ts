@@ -8,7 +8,7 @@
 // "Significant-loophole-free test of Bell's theorem with entangled photons", PRL 115, 250401 (2015).
 
 import { FitInputError } from './errors';
-import { finiteResult, nonNegative, oneOf, positive, requireArray } from './validate';
+import { finite, finiteResult, nonNegative, oneOf, positive, requireArray } from './validate';
 
 export type DeadTimeModel = 'non-paralyzable' | 'paralyzable';
 
@@ -102,7 +102,7 @@ export function combinedJitter(fwhmS: readonly number[]): number {
  * cancellation, so it is accurate to double precision; beyond |x| = 6, 1 − erf < 2e-17.
  */
 export function erf(x: number): number {
-  const ax = Math.abs(x);
+  const ax = Math.abs(finite('x', x));
   if (ax >= 6) return Math.sign(x);
   let term = ax;
   let sum = ax;
@@ -118,8 +118,8 @@ export function erf(x: number): number {
 export function windowCapture(input: { windowS: number; jitterFwhmS: number }): number {
   const w = nonNegative('windowS', input.windowS);
   const j = nonNegative('jitterFwhmS', input.jitterFwhmS);
-  if (j === 0) return w > 0 ? 1 : 0;
   const sigma = j / FWHM_PER_SIGMA;
+  if (sigma === 0) return w > 0 ? 1 : 0;
   return erf(w / sigma / (2 * Math.SQRT2));
 }
 

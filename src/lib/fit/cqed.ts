@@ -59,10 +59,10 @@ export function cqedFromRates(input: RatesInput): RatesResult {
   const g0 = positive('g0Hz', input.g0Hz);
   const kappa = positive('kappaHz', input.kappaHz);
   const gamma = positive('gammaHz', input.gammaHz);
-  const c1 = finiteResult('g0Hz', (g0 / kappa) * (g0 / gamma) / 2, 'cooperativity');
+  const c1 = finiteResult('g0Hz', ((g0 / kappa) * (g0 / gamma)) / 2, 'cooperativity');
   return {
     c1,
-    n0: finiteResult('g0Hz', (gamma / g0) * (gamma / g0) / 2, 'critical photon number'),
+    n0: finiteResult('g0Hz', ((gamma / g0) * (gamma / g0)) / 2, 'critical photon number'),
     N0: finiteResult('g0Hz', 1 / c1, 'critical atom number'),
     couplingRatio: finiteResult('g0Hz', g0 / Math.max(kappa, gamma), 'coupling ratio'),
     strongCoupling: g0 > kappa && g0 > gamma,

@@ -205,9 +205,6 @@ export function fusedSilicaIndex(input: { wavelengthM: number }): number {
   }
   const l2 = um * um;
   const n2 =
-    1 +
-    (0.6961663 * l2) / (l2 - 0.0684043 ** 2) +
-    (0.4079426 * l2) / (l2 - 0.1162414 ** 2) +
-    (0.8974794 * l2) / (l2 - 9.896161 ** 2);
+    1 + (0.6961663 * l2) / (l2 - 0.0684043 ** 2) + (0.4079426 * l2) / (l2 - 0.1162414 ** 2) + (0.8974794 * l2) / (l2 - 9.896161 ** 2);
   return Math.sqrt(n2);
 }

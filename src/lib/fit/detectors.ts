@@ -39,6 +39,6 @@ export function shotNoiseCurrent(input: { photocurrentA: number }): number {
 export function darkNoiseClearance(input: { photocurrentA: number; noiseCurrentAPerRtHz: number }): Clearance {
   const i = positive('photocurrentA', input.photocurrentA);
   const n = positive('noiseCurrentAPerRtHz', input.noiseCurrentAPerRtHz);
-  const ratio = finiteResult('noiseCurrentAPerRtHz', ((2 * ELEMENTARY_CHARGE * i) / n) / n, 'shot-to-dark ratio');
+  const ratio = finiteResult('noiseCurrentAPerRtHz', (2 * ELEMENTARY_CHARGE * i) / n / n, 'shot-to-dark ratio');
   return { ratio, clearanceDb: 10 * Math.log10(1 + ratio), efficiency: ratio / (1 + ratio) };
 }

@@ -40,5 +40,10 @@ export function interpolateCurve(field: string, points: readonly CurvePoint[], x
   }
   const a = pts[lo] as CurvePoint;
   const b = pts[hi] as CurvePoint;
-  return a.y + ((x - a.x) / (b.x - a.x)) * (b.y - a.y);
+  // Differences of extreme abscissae can overflow; halving both first cannot, and the weighted
+  // mean below never exceeds the larger |y|.
+  const span = b.x - a.x;
+  const f = Number.isFinite(span) ? (x - a.x) / span : (x / 2 - a.x / 2) / (b.x / 2 - a.x / 2);
+  const t = Math.min(1, Math.max(0, f));
+  return a.y * (1 - t) + b.y * t;
 }

@@ -40,7 +40,7 @@ export function linewidthForCoherenceLength(input: { coherenceLengthM: number })
 export function frequencyWidth(input: { wavelengthM: number; wavelengthWidthM: number }): number {
   const lambda = positive('wavelengthM', input.wavelengthM);
   const dl = nonNegative('wavelengthWidthM', input.wavelengthWidthM);
-  return finiteResult('wavelengthM', ((SPEED_OF_LIGHT * dl) / lambda) / lambda, 'frequency width');
+  return finiteResult('wavelengthM', (SPEED_OF_LIGHT * dl) / lambda / lambda, 'frequency width');
 }
 
 /**

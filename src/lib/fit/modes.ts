@@ -38,6 +38,12 @@ export interface GaussianMode {
   fsrHz: number;
 }
 
+/*
+ * Results are written as full object literals: in V8 an object spread followed by further
+ * properties takes a slow path that costs microseconds per call, and search evaluates this for
+ * every candidate pair.
+ */
+
 /**
  * Distance from the stability edges below which the geometry is reported as marginal: the spot
  * sizes diverge there (2.2), so a number would mislead rather than inform.
@@ -52,9 +58,12 @@ function radius(field: string, v: unknown): number {
   return v;
 }
 
-function noMode(base: Pick<GaussianMode, 'g1' | 'g2' | 'g1g2' | 'fsrHz'>, marginal: boolean, reason: string): GaussianMode {
+function noMode(g1: number, g2: number, g1g2: number, fsrHz: number, marginal: boolean, reason: string): GaussianMode {
   return {
-    ...base,
+    g1,
+    g2,
+    g1g2,
+    fsrHz,
     stable: false,
     marginal,
     reason,
@@ -79,14 +88,16 @@ export function gaussianMode(input: GaussianModeInput): GaussianMode {
   const g2 = finiteResult('lengthM', 1 - L / r2, 'g2');
   const g1g2 = finiteResult('lengthM', g1 * g2, 'g1·g2');
   const fsrHz = finiteResult('lengthM', SPEED_OF_LIGHT / (2 * L), 'free spectral range');
-  const base = { g1, g2, g1g2, fsrHz };
   const scale = (lambda * L) / Math.PI;
 
   if (Math.abs(g1) < EDGE && Math.abs(g2) < EDGE) {
     // Symmetric confocal (2.4): marginal but with a finite mode, w0 = √(λL/2π), ψ = π/2.
     const w0M = finiteResult('lengthM', Math.sqrt(scale / 2), 'waist');
     return {
-      ...base,
+      g1,
+      g2,
+      g1g2,
+      fsrHz,
       stable: true,
       marginal: true,
       reason: 'symmetric confocal: on the stability edge; the mode is finite but sensitive to length',
@@ -101,10 +112,10 @@ export function gaussianMode(input: GaussianModeInput): GaussianMode {
     };
   }
   if (g1g2 < -EDGE || g1g2 > 1 + EDGE) {
-    return noMode(base, false, `unstable: g1·g2 = ${g1g2.toFixed(2)} is outside 0…1`);
+    return noMode(g1, g2, g1g2, fsrHz, false, `unstable: g1·g2 = ${g1g2.toFixed(2)} is outside 0…1`);
   }
   if (Math.abs(g1g2) <= EDGE || Math.abs(1 - g1g2) <= EDGE) {
-    return noMode(base, true, `marginal: g1·g2 = ${g1g2.toFixed(2)} is on the stability edge; the spot size diverges`);
+    return noMode(g1, g2, g1g2, fsrHz, true, `marginal: g1·g2 = ${g1g2.toFixed(2)} is on the stability edge; the spot size diverges`);
   }
 
   const denom = g1 + g2 - 2 * g1g2;
@@ -114,7 +125,10 @@ export function gaussianMode(input: GaussianModeInput): GaussianMode {
   const psi = Math.acos((g1 > 0 ? 1 : -1) * Math.sqrt(g1g2));
   const spacing = (fsrHz * psi) / Math.PI;
   return {
-    ...base,
+    g1,
+    g2,
+    g1g2,
+    fsrHz,
     stable: true,
     marginal: false,
     reason: null,

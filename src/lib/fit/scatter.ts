@@ -33,5 +33,5 @@ export function totalIntegratedScatter(input: ScatterInput): number {
 export function scatterLimitedFinesse(input: { scatterLoss: number }): number {
   const s = positive('scatterLoss', input.scatterLoss);
   if (s >= 1) throw new FitInputError('scatterLoss', `must be a power fraction below 1, got ${s}`);
-  return Math.PI / s;
+  return finiteResult('scatterLoss', Math.PI / s, 'finesse');
 }

@@ -41,7 +41,7 @@ export type ElectronicNoiseInput = { clearanceDb: number } | { shotToDarkRatio: 
 
 /** Form 5.2: a squeezing in dB (positive = below shot noise) as a variance. */
 export function varianceFromDb(db: number): number {
-  return Math.pow(10, -db / 10);
+  return finiteResult('db', Math.pow(10, -finite('db', db) / 10), 'variance');
 }
 
 function dbFromVariance(field: string, v: number): number {
@@ -83,10 +83,7 @@ export function requiredEfficiency(input: { targetDb: number; initialDb?: number
   const initial = input.initialDb === undefined ? undefined : squeezingDb('initialDb', input.initialDb);
   const numerator = -Math.expm1((-target / 10) * Math.LN10);
   const denominator = initial === undefined ? 1 : -Math.expm1((-initial / 10) * Math.LN10);
-  return feasibility(
-    finiteResult('initialDb', numerator / denominator, 'required efficiency'),
-    `${target} dB measured`,
-  );
+  return feasibility(finiteResult('initialDb', numerator / denominator, 'required efficiency'), `${target} dB measured`);
 }
 
 /**
@@ -145,7 +142,9 @@ function phaseOffset(v: number | undefined): number {
  * that would round it to 0 near threshold.
  */
 function opoVariances(x: number, w: number, eta: number): { vm: number; vp: number } {
-  const w2 = w * w;
+  // Far outside the cavity line both quadratures are at shot noise; capping (Ω/γ_c)² keeps that
+  // limit exact instead of ∞/∞.
+  const w2 = Math.min(w * w, 1e300);
   return {
     vm: ((1 - x) * (1 - x) + w2 + 4 * x * (1 - eta)) / ((1 + x) * (1 + x) + w2),
     vp: 1 + (eta * 4 * x) / ((1 - x) * (1 - x) + w2),
@@ -222,42 +221,44 @@ export function optimumPump(input: { efficiency: number; phaseNoiseRad: number; 
   return { pumpParameter: bestX, squeezedDb: dbFromVariance('phaseNoiseRad', bestV) };
 }
 
-export type SqueezingSource =
-  | { initialDb: number; antiSqueezingDb?: number }
-  | { pumpParameter: number; omegaOverGamma: number };
+export type SqueezingSource = { initialDb: number; antiSqueezingDb?: number } | { pumpParameter: number; omegaOverGamma: number };
+
+/** Measured quadratures as V−(η) = 1 − η·squeezed and V+(η) = 1 + η·antiSqueezed. */
+export interface SourceSlopes {
+  squeezed: number;
+  antiSqueezed: number;
+}
 
 /**
- * How much the source lowers the measured variance per unit total efficiency η, with the fixed
- * phase offset θ: V_meas(η) = 1 − η·k. For an initial state (V−, V+), k = 1 − V−cos²θ − V+sin²θ
- * (5.1 with 5.7; a pure state, V+ = 1/V−, unless antiSqueezingDb is given). For the OPO,
- * k = a·cos²θ − b·sin²θ with a, b the 5.6 terms at η = 1. No squeezing is visible when k ≤ 0.
+ * How much the source moves each measured quadrature per unit total efficiency η, with the fixed
+ * phase offset θ. Loss (5.1) mixes in vacuum linearly, V(η) = η·V + 1 − η, so each quadrature is
+ * 1 ∓ η·slope. For an initial state (V−, V+; pure, V+ = 1/V−, unless antiSqueezingDb is given)
+ * rotated by θ (5.7); for the OPO the 5.6 terms at η = 1, rotated. No squeezing is visible when
+ * `squeezed` ≤ 0.
  */
-export function squeezingSlope(input: { source: SqueezingSource; phaseNoiseRad?: number }): number {
+export function sourceSlopes(input: { source: SqueezingSource; phaseNoiseRad?: number }): SourceSlopes {
   const theta = phaseOffset(input.phaseNoiseRad);
   const source = input.source;
   let vm: number;
   let vp: number;
   if ('initialDb' in source) {
     vm = varianceFromDb(squeezingDb('source.initialDb', source.initialDb));
-    vp =
-      source.antiSqueezingDb === undefined
-        ? 1 / vm
-        : 1 / varianceFromDb(squeezingDb('source.antiSqueezingDb', source.antiSqueezingDb));
+    vp = source.antiSqueezingDb === undefined ? 1 / vm : 1 / varianceFromDb(squeezingDb('source.antiSqueezingDb', source.antiSqueezingDb));
   } else {
-    ({ vm, vp } = opoVariances(
-      pumpParameter(source.pumpParameter),
-      nonNegative('source.omegaOverGamma', source.omegaOverGamma),
-      1,
-    ));
+    ({ vm, vp } = opoVariances(pumpParameter(source.pumpParameter), nonNegative('source.omegaOverGamma', source.omegaOverGamma), 1));
   }
-  return finiteResult('source', 1 - rotate(vm, finiteResult('source', vp, 'anti-squeezed variance'), theta).vMinus, 'squeezing');
+  const r = rotate(vm, finiteResult('source', vp, 'anti-squeezed variance'), theta);
+  return {
+    squeezed: finiteResult('source', 1 - r.vMinus, 'squeezing'),
+    antiSqueezed: finiteResult('source', r.vPlus - 1, 'anti-squeezing'),
+  };
 }
 
 /**
  * Form 12.4: the photodiode quantum efficiency a measured target needs,
  * η_QE,req = η_req/(η_esc·η_prop·V_vis²·η_el). η_req is 5.4 for an initial squeezing (infinite when
  * neither initialDb nor opo is given), or 5.6/5.7 for an OPO; with a phase offset, V_meas = 1 − η·k
- * (squeezingSlope) is solved for η. Infeasible when η_req or η_QE,req exceeds 1.
+ * (sourceSlopes) is solved for η. Infeasible when η_req or η_QE,req exceeds 1.
  */
 export function requiredDetectorEfficiency(input: {
   targetDb: number;
@@ -280,13 +281,13 @@ export function requiredDetectorEfficiency(input: {
     electronicEfficiency({ clearanceDb: input.clearanceDb });
   let k = 1;
   if (input.opo !== undefined) {
-    k = squeezingSlope({ source: input.opo, phaseNoiseRad: input.phaseNoiseRad });
+    k = sourceSlopes({ source: input.opo, phaseNoiseRad: input.phaseNoiseRad }).squeezed;
   } else if (input.initialDb !== undefined) {
     const source =
       input.antiSqueezingDb === undefined
         ? { initialDb: input.initialDb }
         : { initialDb: input.initialDb, antiSqueezingDb: input.antiSqueezingDb };
-    k = squeezingSlope({ source, phaseNoiseRad: input.phaseNoiseRad });
+    k = sourceSlopes({ source, phaseNoiseRad: input.phaseNoiseRad }).squeezed;
   } else if (phaseOffset(input.phaseNoiseRad) !== 0) {
     throw new FitInputError('phaseNoiseRad', 'a phase offset needs a finite source (initialDb or opo)');
   }
@@ -308,5 +309,6 @@ export function requiredDetectorEfficiency(input: {
       reason: `${target} dB measured needs a total efficiency of ${totalRequired.toFixed(4)}, above 1, even with a perfect detector`,
     };
   }
-  return { ...feasibility(qe, `${target} dB measured`), totalRequired };
+  const f = feasibility(qe, `${target} dB measured`);
+  return { feasible: f.feasible, efficiency: f.efficiency, reason: f.reason, totalRequired };
 }

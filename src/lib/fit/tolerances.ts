@@ -82,7 +82,5 @@ export function worstCase<K extends string>(
     if (x < lowest) lowest = x;
     if (x > highest) highest = x;
   }
-  return better === 'higher'
-    ? { nominal, worst: lowest, best: highest }
-    : { nominal, worst: highest, best: lowest };
+  return better === 'higher' ? { nominal, worst: lowest, best: highest } : { nominal, worst: highest, best: lowest };
 }

@@ -8,7 +8,7 @@ import { FitInputError } from '../errors';
 import { finesseFromMirrorLosses } from '../cavity';
 import { gaussianMode } from '../modes';
 import { integerAtLeast, requireArray } from '../validate';
-import { evaluateCavityGoal, mirrorAtWavelength, parseCavityGoal } from './cavity';
+import { evaluateCavityGoal, mirrorAtWavelength, modeRadius, parseCavityGoal } from './cavity';
 import type { CavityGoal, CavityGoalResult, MirrorSpec } from './types';
 
 export interface MirrorPair {
@@ -21,7 +21,7 @@ export interface MirrorPair {
 interface Candidate {
   index: number;
   lossWorstPpm: number;
-  rocM: number;
+  rocM: number | null;
 }
 
 interface Node {
@@ -98,7 +98,10 @@ export function bestPairs(goal: CavityGoal, mirrors: readonly MirrorSpec[], k: n
     const l1 = (candidates[i] as Candidate).lossWorstPpm * 1e-6;
     const l2 = (candidates[j] as Candidate).lossWorstPpm * 1e-6;
     if (l1 === 0 && l2 === 0 && extraLoss === 0) {
-      throw new FitInputError(`mirrors[${(candidates[i] as Candidate).index}].lossPpm`, 'worst-case T + loss of 0 ppm on both mirrors: the finesse is unbounded');
+      throw new FitInputError(
+        `mirrors[${(candidates[i] as Candidate).index}].lossPpm`,
+        'worst-case T + loss of 0 ppm on both mirrors: the finesse is unbounded',
+      );
     }
     return finesseFromMirrorLosses({ loss1: l1, loss2: l2, extraLoss });
   };
@@ -114,7 +117,7 @@ export function bestPairs(goal: CavityGoal, mirrors: readonly MirrorSpec[], k: n
     if (j === i + 1 && i + 2 < n) heap.push({ i: i + 1, j: i + 2, score: score(i + 1, i + 2) });
     const ci = candidates[i] as Candidate;
     const cj = candidates[j] as Candidate;
-    if (!gaussianMode({ lengthM, roc1M: ci.rocM, roc2M: cj.rocM, wavelengthM }).stable) continue;
+    if (!gaussianMode({ lengthM, roc1M: modeRadius(ci.rocM), roc2M: modeRadius(cj.rocM), wavelengthM }).stable) continue;
     out.push({
       a: ci.index,
       b: cj.index,

@@ -7,6 +7,7 @@
 // Opt. Phys. 60, 201 (2011).
 
 import { cavityLinewidth, finesseFromMirrorLosses, freeSpectralRange, lossFromRingdown, storageTime } from '../cavity';
+import { SPEED_OF_LIGHT } from '../constants';
 import { cqed } from '../cqed';
 import { FitInputError } from '../errors';
 import { interpolateCurve } from '../interpolate';
@@ -14,15 +15,8 @@ import { gaussianMode, type GaussianMode } from '../modes';
 import { totalIntegratedScatter } from '../scatter';
 import { finite, inRange, nonNegative, oneOf, positive, powerFraction, requireObject } from '../validate';
 import { fmt, formatHz, formatLength, formatNm, formatSeconds } from './format';
-import { exact, nearWavelength, spread, type Spread } from './spec';
-import type {
-  CavityGoal,
-  CavityGoalResult,
-  CavityTarget,
-  MirrorAtWavelength,
-  MirrorSpec,
-  OwnMirror,
-} from './types';
+import { exact, nearWavelength, readCurve, spread, type Spread } from './spec';
+import type { CavityGoal, CavityGoalResult, CavityTarget, MirrorAtWavelength, MirrorSpec, OwnMirror } from './types';
 import { headroomOf, verdictOf, type Better } from './verdict';
 
 const PPM = 1e-6;
@@ -45,20 +39,19 @@ export interface MirrorReading {
   notes: string[];
 }
 
-function rocOf(field: string, rocMm: unknown): number {
-  if (rocMm === null) return Infinity;
+function rocOf(field: string, rocMm: unknown): number | null {
+  if (rocMm === null) return null;
   const r = finite(field, rocMm);
   if (r === 0) throw new FitInputError(field, 'must be a non-zero radius in mm, or null for a flat mirror');
   return r * 1e-3;
 }
 
-function fromTotals(
-  source: MirrorAtWavelength['source'],
-  t: Spread,
-  a: Spread,
-  rocM: number,
-  field: string,
-): MirrorAtWavelength {
+/** gaussianMode takes a flat mirror as an infinite radius. */
+export function modeRadius(rocM: number | null): number {
+  return rocM ?? Infinity;
+}
+
+function fromTotals(source: MirrorAtWavelength['source'], t: Spread, a: Spread, rocM: number | null, field: string): MirrorAtWavelength {
   const total = t.nominal + a.nominal;
   if (!(total < 1e6)) throw new FitInputError(`${field}.transmissionPpm`, 'T + loss must be below 1e6 ppm');
   return {
@@ -118,11 +111,7 @@ export function mirrorAtWavelength(mirror: MirrorSpec, wavelengthNm: number, fie
   const spectrum = m.spectrum;
   if (spectrum !== undefined) {
     const pts = requireObject(`${field}.spectrum`, spectrum).points;
-    if (!Array.isArray(pts)) throw new FitInputError(`${field}.spectrum.points`, 'must be an array');
-    const tPoints = spectrum.points.map((p, i) => ({
-      x: positive(`${field}.spectrum.points[${i}].wavelengthNm`, p.wavelengthNm),
-      y: nonNegative(`${field}.spectrum.points[${i}].transmissionPpm`, p.transmissionPpm),
-    }));
+    const tPoints = readCurve(`${field}.spectrum.points`, pts, 'wavelengthNm', 'transmissionPpm', nonNegative);
     const tAt = interpolateCurve(`${field}.spectrum.points`, tPoints, lambda);
     if (tAt !== null) {
       t = exact(tAt);
@@ -146,10 +135,12 @@ export function mirrorAtWavelength(mirror: MirrorSpec, wavelengthNm: number, fie
     const rd = requireObject(`${field}.ringdown`, ringdown);
     const rdLambda = positive(`${field}.ringdown.wavelengthNm`, rd.wavelengthNm);
     if (nearWavelength(rdLambda, lambda)) {
-      const loss = lossFromRingdown({
-        lengthM: positive(`${field}.ringdown.lengthM`, rd.lengthM),
-        tauS: positive(`${field}.ringdown.tauS`, rd.tauS),
-      });
+      const lengthM = positive(`${field}.ringdown.lengthM`, rd.lengthM);
+      const tauS = positive(`${field}.ringdown.tauS`, rd.tauS);
+      if (!(tauS > (2 * lengthM) / SPEED_OF_LIGHT)) {
+        throw new FitInputError(`${field}.ringdown.tauS`, 'is not longer than the round-trip time; form 1.10 needs τ ≫ 2L/c');
+      }
+      const loss = lossFromRingdown({ lengthM, tauS });
       const total = loss.perMirrorLoss / PPM;
       const tKnown = Math.min(t === null ? specT.nominal : t.nominal, total);
       notes.push(
@@ -173,7 +164,10 @@ export function mirrorAtWavelength(mirror: MirrorSpec, wavelengthNm: number, fie
   }
 
   if (m.roughnessNm !== undefined) {
-    const tis = totalIntegratedScatter({ roughnessM: nonNegative(`${field}.roughnessNm`, m.roughnessNm) * 1e-9, wavelengthM: lambda * 1e-9 });
+    const tis = totalIntegratedScatter({
+      roughnessM: nonNegative(`${field}.roughnessNm`, m.roughnessNm) * 1e-9,
+      wavelengthM: lambda * 1e-9,
+    });
     if (tis / PPM > a.nominal) {
       notes.push(
         `roughness ${fmt(m.roughnessNm)} nm rms implies about ${fmt(tis / PPM)} ppm scatter at ${formatNm(lambda)} (TIS, Bennett & Porteus 1961), above the stated loss ${fmt(a.nominal)} ppm; the rms may refer to another spatial-frequency band`,
@@ -265,7 +259,12 @@ function clippingLoss(diameterMm: number, wM: number): number {
   return Math.exp((-2 * a * a) / (wM * wM));
 }
 
-function readings(goal: CavityGoal, lambdaNm: number, mirrorA: MirrorSpec, mirrorB: MirrorSpec | undefined): [MirrorReading, MirrorReading] {
+function readings(
+  goal: CavityGoal,
+  lambdaNm: number,
+  mirrorA: MirrorSpec,
+  mirrorB: MirrorSpec | undefined,
+): [MirrorReading, MirrorReading] {
   if (goal.configuration === 'pair') {
     if (mirrorB !== undefined) throw new FitInputError('mirrorB', 'must be omitted: pair uses two units of one listing');
     const r = mirrorAtWavelength(mirrorA, lambdaNm, 'mirrorA');
@@ -290,7 +289,7 @@ export function evaluateCavityGoal(goal: CavityGoal, mirrorA: MirrorSpec, mirror
   const { lambdaNm, lengthM, target, extraLoss, fsrHz, goalFinesse } = parsed;
   const [r1, r2] = readings(goal, lambdaNm, mirrorA, mirrorB);
   const reasons: string[] = [];
-  const notes: string[] = [...r1.notes, ...(r2 === r1 ? [] : r2.notes)];
+  const notes: string[] = r2 === r1 ? r1.notes.slice() : r1.notes.concat(r2.notes);
   if (r1.blocking !== null) reasons.push(goal.configuration === 'pair' ? r1.blocking : `mirror 1: ${r1.blocking}`);
   if (r2.blocking !== null && r2 !== r1) reasons.push(`mirror 2: ${r2.blocking}`);
   const m1 = r1.mirror;
@@ -299,19 +298,17 @@ export function evaluateCavityGoal(goal: CavityGoal, mirrorA: MirrorSpec, mirror
   const better = BETTER[kind];
   const goalFigure = kind === 'finesse' ? goalFinesse : kind === 'linewidth' ? (target as { hz: number }).hz : (target as { s: number }).s;
 
-  const base = {
-    target: kind,
-    goalFinesse,
-    fsrHz,
-    unit: UNIT[kind],
-    goal: goalFigure,
-    formula: FORMULA,
-    source: SOURCE,
-    mirrors: [m1, m2] as [MirrorAtWavelength | null, MirrorAtWavelength | null],
-  };
+  const mirrors: [MirrorAtWavelength | null, MirrorAtWavelength | null] = [m1, m2];
   if (m1 === null || m2 === null) {
     return {
-      ...base,
+      target: kind,
+      goalFinesse,
+      fsrHz,
+      unit: UNIT[kind],
+      goal: goalFigure,
+      formula: FORMULA,
+      source: SOURCE,
+      mirrors,
       pass: false,
       verdict: 'does-not-fit',
       figure: null,
@@ -343,7 +340,7 @@ export function evaluateCavityGoal(goal: CavityGoal, mirrorA: MirrorSpec, mirror
   const figure = figureOf(kind, nominalF, lengthM);
   const worst = figureOf(kind, worstF, lengthM);
 
-  const mode = gaussianMode({ lengthM, roc1M: m1.rocM, roc2M: m2.rocM, wavelengthM: lambdaNm * 1e-9 });
+  const mode = gaussianMode({ lengthM, roc1M: modeRadius(m1.rocM), roc2M: modeRadius(m2.rocM), wavelengthM: lambdaNm * 1e-9 });
   const unstable = stabilityReason(mode, lengthM);
   if (unstable !== null) reasons.push(unstable);
   else if (mode.marginal && mode.reason !== null) notes.push(mode.reason);
@@ -357,7 +354,9 @@ export function evaluateCavityGoal(goal: CavityGoal, mirrorA: MirrorSpec, mirror
       if (d === null || d === undefined) continue;
       const clip = clippingLoss(d, w);
       if (clip > PPM) {
-        notes.push(`beam radius ${formatLength(w)} on the ${fmt(d)} mm mirror ${i + 1}: about ${fmt(clip / PPM)} ppm clipping per bounce, not included`);
+        notes.push(
+          `beam radius ${formatLength(w)} on the ${fmt(d)} mm mirror ${i + 1}: about ${fmt(clip / PPM)} ppm clipping per bounce, not included`,
+        );
       }
     }
   }
@@ -378,18 +377,30 @@ export function evaluateCavityGoal(goal: CavityGoal, mirrorA: MirrorSpec, mirror
   if (parsed.atom !== null) {
     const { atomNm, gammaHz } = parsed.atom;
     if (!nearWavelength(atomNm, lambdaNm)) {
-      notes.push(`atom line ${formatNm(atomNm)} differs from the cavity wavelength ${formatNm(lambdaNm)}; finesse taken at ${formatNm(lambdaNm)}`);
+      notes.push(
+        `atom line ${formatNm(atomNm)} differs from the cavity wavelength ${formatNm(lambdaNm)}; finesse taken at ${formatNm(lambdaNm)}`,
+      );
     }
     if (mode.w0M !== null) {
-      const atomMode = gaussianMode({ lengthM, roc1M: m1.rocM, roc2M: m2.rocM, wavelengthM: atomNm * 1e-9 });
+      const atomMode = gaussianMode({ lengthM, roc1M: modeRadius(m1.rocM), roc2M: modeRadius(m2.rocM), wavelengthM: atomNm * 1e-9 });
       const q = cqed({ wavelengthM: atomNm * 1e-9, gammaHz, lengthM, waistM: atomMode.w0M ?? mode.w0M, finesse: nominalF });
       cooperativity = { g0Hz: q.g0Hz, kappaHz: q.kappaHz, gammaHz: q.gammaHz, c1: q.c1, eta: q.eta, strongCoupling: q.strongCoupling };
-      notes.push('cooperativity C1 = g0²/(2κγ) (half widths) for a two-level atom at an antinode on the axis at the waist; η = 2·C1 is the ensemble convention');
+      notes.push(
+        'cooperativity C1 = g0²/(2κγ) (half widths) for a two-level atom at an antinode on the axis at the waist; η = 2·C1 is the ensemble convention',
+      );
     }
   }
 
+  // A full literal rather than a spread of shared fields: see the note in modes.ts on V8 spreads.
   return {
-    ...base,
+    target: kind,
+    goalFinesse,
+    fsrHz,
+    unit: UNIT[kind],
+    goal: goalFigure,
+    formula: FORMULA,
+    source: SOURCE,
+    mirrors,
     pass: verdict === 'fits',
     verdict,
     figure,
@@ -398,8 +409,8 @@ export function evaluateCavityGoal(goal: CavityGoal, mirrorA: MirrorSpec, mirror
     reasons,
     notes,
     finesse: { nominal: nominalF, worst: worstF, best: bestF },
-    linewidthHz: { nominal: fsrHz / nominalF, worst: fsrHz / worstF },
-    storageTimeS: { nominal: nominalF / (2 * Math.PI * fsrHz), worst: worstF / (2 * Math.PI * fsrHz) },
+    linewidthHz: { nominal: figureOf('linewidth', nominalF, lengthM), worst: figureOf('linewidth', worstF, lengthM) },
+    storageTimeS: { nominal: figureOf('storage-time', nominalF, lengthM), worst: figureOf('storage-time', worstF, lengthM) },
     stable: mode.stable,
     g1: mode.g1,
     g2: mode.g2,

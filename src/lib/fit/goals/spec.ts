@@ -1,7 +1,8 @@
 // Reading listing specs: toleranced numbers and single-wavelength values (physics.md A12 form 12.5:
 // interval arithmetic at the pessimistic ends).
 
-import { nonNegative, requireObject } from '../validate';
+import type { CurvePoint } from '../interpolate';
+import { nonNegative, positive, requireArray, requireObject } from '../validate';
 import type { TolerancedSpec } from './types';
 
 /**
@@ -27,6 +28,20 @@ export function spread(field: string, v: TolerancedSpec, max = Infinity): Spread
 
 export function exact(x: number): Spread {
   return { nominal: x, low: x, high: x };
+}
+
+/** A measured curve stored as objects ({ wavelengthNm, qe } …), checked and turned into x/y points. */
+export function readCurve(
+  field: string,
+  points: unknown,
+  xKey: string,
+  yKey: string,
+  checkY: (field: string, v: unknown) => number,
+): CurvePoint[] {
+  return requireArray(field, points).map((p, i) => {
+    const o = requireObject(`${field}[${i}]`, p);
+    return { x: positive(`${field}[${i}].${xKey}`, o[xKey]), y: checkY(`${field}[${i}].${yKey}`, o[yKey]) };
+  });
 }
 
 export function nearWavelength(a: number, b: number): boolean {

@@ -8,10 +8,10 @@
 import { ELEMENTARY_CHARGE, PLANCK, SPEED_OF_LIGHT } from '../constants';
 import { FitInputError } from '../errors';
 import { interpolateCurve } from '../interpolate';
-import { squeezingSlope, type SqueezingSource } from '../squeezing';
-import { efficiency, finite, nonNegative, oneOf, positive, requireObject } from '../validate';
+import { sourceSlopes, type SqueezingSource } from '../squeezing';
+import { efficiency, finite, finiteResult, nonNegative, oneOf, positive, requireObject } from '../validate';
 import { fmt, formatHz, formatNm, formatWatts } from './format';
-import { nearWavelength, spread, type Spread } from './spec';
+import { nearWavelength, readCurve, spread, type Spread } from './spec';
 import type { PhotodiodeSpec, SqueezingGoal, SqueezingGoalResult } from './types';
 import { headroomOf, verdictOf, worse } from './verdict';
 
@@ -31,12 +31,9 @@ interface QeReading {
 }
 
 function detectorQe(d: PhotodiodeSpec, lambdaNm: number): QeReading | string {
-  if (d.qeCurve !== undefined) {
-    const pts = d.qeCurve.map((p, i) => ({
-      x: positive(`detector.qeCurve[${i}].wavelengthNm`, p.wavelengthNm),
-      y: efficiency(`detector.qeCurve[${i}].qe`, p.qe),
-    }));
-    const qe = interpolateCurve('detector.qeCurve', pts, lambdaNm);
+  const curve = d.qeCurve === undefined ? null : readCurve('detector.qeCurve', d.qeCurve, 'wavelengthNm', 'qe', efficiency);
+  if (curve !== null) {
+    const qe = interpolateCurve('detector.qeCurve', curve, lambdaNm);
     if (qe !== null) return { qe: { nominal: qe, low: qe, high: qe }, source: 'curve' };
   }
   const at = d.wavelengthNm === undefined ? undefined : positive('detector.wavelengthNm', d.wavelengthNm);
@@ -60,8 +57,8 @@ function detectorQe(d: PhotodiodeSpec, lambdaNm: number): QeReading | string {
     }
   }
   const given: string[] = [];
-  if (d.qeCurve !== undefined && d.qeCurve.length > 0) {
-    const xs = d.qeCurve.map((p) => p.wavelengthNm);
+  if (curve !== null && curve.length > 0) {
+    const xs = curve.map((p) => p.x);
     given.push(`curve covers ${fmt(Math.min(...xs), 6)}–${fmt(Math.max(...xs), 6)} nm`);
   }
   if (at !== undefined) given.push(`stated at ${formatNm(at)}`);
@@ -73,19 +70,21 @@ function squeezingSourceOf(goal: SqueezingGoal): { source: SqueezingSource; labe
   const kind = oneOf('goal.source.kind', s.kind, ['initial', 'opo'] as const);
   if (kind === 'initial') {
     const init = s as Extract<SqueezingGoal['source'], { kind: 'initial' }>;
+    const initialDb = positive('goal.source.initialDb', init.initialDb);
     return {
       source:
         init.antiSqueezingDb === undefined
-          ? { initialDb: init.initialDb }
-          : { initialDb: init.initialDb, antiSqueezingDb: init.antiSqueezingDb },
-      label: `initial ${fmt(init.initialDb)} dB`,
+          ? { initialDb }
+          : { initialDb, antiSqueezingDb: positive('goal.source.antiSqueezingDb', init.antiSqueezingDb) },
+      label: `initial ${fmt(initialDb)} dB`,
     };
   }
   const opo = s as Extract<SqueezingGoal['source'], { kind: 'opo' }>;
+  const pumpParameter = nonNegative('goal.source.pumpParameter', opo.pumpParameter);
   const halfWidth = positive('goal.source.linewidthHz', opo.linewidthHz) / 2;
   return {
-    source: { pumpParameter: opo.pumpParameter, omegaOverGamma: positive('goal.sidebandHz', goal.sidebandHz) / halfWidth },
-    label: `OPO x = ${fmt(opo.pumpParameter)}`,
+    source: { pumpParameter, omegaOverGamma: positive('goal.sidebandHz', goal.sidebandHz) / halfWidth },
+    label: `OPO x = ${fmt(pumpParameter)}`,
   };
 }
 
@@ -93,13 +92,29 @@ function db(v: number): number {
   return -10 * Math.log10(v) + 0;
 }
 
+interface Electronics {
+  eta: number;
+  clearanceDb: number;
+}
+
+/** Forms 12.2–12.3 at the LO photocurrent I = η_QE·(eλ/hc)·P_LO: s = 2eI/i_n², η_el = s/(1 + s). */
+function electronics(qe: number, perQe: number, loPowerW: number, noise: number): Electronics {
+  const s = finiteResult(
+    'detector.noiseCurrentAPerRtHz',
+    (2 * ELEMENTARY_CHARGE * qe * perQe * loPowerW) / noise / noise,
+    'shot-to-dark ratio',
+  );
+  return { eta: s / (1 + s), clearanceDb: 10 * Math.log10(1 + s) };
+}
+
 /**
  * The squeezing goal against one photodiode or balanced detector. QE at the wavelength from the
  * detector's curve, else its spec or responsivity quoted within 1 nm; electronic efficiency from
  * its input-referred noise (or NEP × responsivity) at the LO photocurrent (12.2–12.3); predicted
- * measured squeezing V_meas = 1 − η·k (squeezingSlope). Worst case: QE at −tol and noise at +tol.
- * Bandwidth below the sideband and saturation below the LO power are blocking reasons. Without a
- * noise figure the electronics are taken as noiseless and the verdict is at most marginal.
+ * measured squeezing V− = 1 − η·k (sourceSlopes). Worst case: QE at −tol and noise at +tol.
+ * Bandwidth below the sideband, saturation below the LO power and no QE at the wavelength are
+ * blocking reasons. Without a noise figure the electronics are taken as noiseless and the verdict
+ * is at most marginal.
  */
 export function evaluateSqueezingGoal(goal: SqueezingGoal, detector: PhotodiodeSpec): SqueezingGoalResult {
   const g = requireObject('goal', goal) as unknown as SqueezingGoal;
@@ -113,47 +128,49 @@ export function evaluateSqueezingGoal(goal: SqueezingGoal, detector: PhotodiodeS
   const loPowerW = positive('goal.loPowerW', g.loPowerW);
   const theta = g.phaseNoiseRad === undefined ? 0 : finite('goal.phaseNoiseRad', g.phaseNoiseRad);
   const bandwidthHz = positive('detector.bandwidthHz', d.bandwidthHz);
+  const saturationW = d.saturationPowerW === undefined ? null : positive('detector.saturationPowerW', d.saturationPowerW);
+  if (d.cmrrDb !== undefined) nonNegative('detector.cmrrDb', d.cmrrDb);
   const { source, label } = squeezingSourceOf(g);
-  const k = squeezingSlope({ source, phaseNoiseRad: theta });
+  const slopes = sourceSlopes({ source, phaseNoiseRad: theta });
+  const k = slopes.squeezed;
   const chain = escape * propagation * visibility * visibility;
-  const vTarget = Math.pow(10, -targetDb / 10);
-  const totalRequired = (1 - vTarget) / k;
+  const totalRequired = k > 0 ? finiteResult('goal.source', -Math.expm1((-targetDb / 10) * Math.LN10) / k, 'required efficiency') : 0;
 
+  const blocking: string[] = [];
   const reasons: string[] = [];
   const notes: string[] = [];
-  let cap: SqueezingGoalResult['verdict'] = 'fits';
   if (bandwidthHz < sidebandHz) {
-    reasons.push(`bandwidth ${formatHz(bandwidthHz)} below the ${formatHz(sidebandHz)} sideband`);
+    blocking.push(`bandwidth ${formatHz(bandwidthHz)} below the ${formatHz(sidebandHz)} sideband`);
   } else if (sidebandHz > bandwidthHz / 2) {
-    notes.push(`the ${formatHz(sidebandHz)} sideband is within a factor 2 of the ${formatHz(bandwidthHz)} bandwidth: gain and clearance roll off there`);
+    notes.push(
+      `the ${formatHz(sidebandHz)} sideband is within a factor 2 of the ${formatHz(bandwidthHz)} bandwidth: gain and clearance roll off there`,
+    );
   }
-  if (d.saturationPowerW !== undefined && positive('detector.saturationPowerW', d.saturationPowerW) < loPowerW) {
-    reasons.push(`local oscillator ${formatWatts(loPowerW)} above the ${formatWatts(d.saturationPowerW)} saturation power`);
+  if (saturationW !== null && saturationW < loPowerW) {
+    blocking.push(`local oscillator ${formatWatts(loPowerW)} above the ${formatWatts(saturationW)} saturation power`);
   }
-  if (k <= 0) reasons.push(`the source (${label}) shows no squeezing with a ${fmt(theta)} rad phase offset`);
-  else if (totalRequired > 1) {
-    reasons.push(`${fmt(targetDb)} dB needs a total efficiency of ${fmt(totalRequired, 4)}, above 1, from this source (${label}) even with a perfect detector`);
+  if (k <= 0) {
+    reasons.push(`the source (${label}) shows no squeezing with a ${fmt(theta)} rad phase offset`);
+  } else if (totalRequired > 1) {
+    reasons.push(
+      `${fmt(targetDb)} dB needs a total efficiency of ${fmt(totalRequired, 4)}, above 1, from this source (${label}) even with a perfect detector`,
+    );
   }
-
-  const requiredQEIdealElectronics = k > 0 ? totalRequired / chain : null;
+  const requiredQEIdealElectronics = k > 0 ? finiteResult('goal', totalRequired / chain, 'required quantum efficiency') : null;
   const qeReading = detectorQe(d, lambdaNm);
-  const base = {
-    goal: targetDb,
-    unit: 'dB',
-    formula: FORMULA,
-    source: SOURCE,
-    requiredQEIdealElectronics,
-  };
   if (typeof qeReading === 'string') {
-    reasons.push(qeReading);
     return {
-      ...base,
+      goal: targetDb,
+      unit: 'dB',
+      formula: FORMULA,
+      source: SOURCE,
+      requiredQEIdealElectronics,
       pass: false,
       verdict: 'does-not-fit',
       figure: null,
       worst: null,
       headroom: null,
-      reasons,
+      reasons: [...blocking, qeReading, ...reasons],
       notes,
       requiredQE: null,
       quantumEfficiency: null,
@@ -166,62 +183,61 @@ export function evaluateSqueezingGoal(goal: SqueezingGoal, detector: PhotodiodeS
   }
 
   const perQe = responsivityPerQe(lambdaNm * 1e-9);
+  const qe = qeReading.qe;
   let noise: Spread | null = null;
   if (d.noiseCurrentAPerRtHz !== undefined) {
     noise = spread('detector.noiseCurrentAPerRtHz', d.noiseCurrentAPerRtHz);
     positive('detector.noiseCurrentAPerRtHz.value', noise.nominal);
   } else if (d.nepWPerRtHz !== undefined) {
-    const nep = positive('detector.nepWPerRtHz', d.nepWPerRtHz);
-    const n = nep * qeReading.qe.nominal * perQe;
+    const n = positive('detector.nepWPerRtHz', d.nepWPerRtHz) * qe.nominal * perQe;
     noise = { nominal: n, low: n, high: n };
-    notes.push('electronic noise from the NEP times the responsivity at this wavelength');
-  } else {
-    cap = 'marginal';
-    reasons.push('no input-referred noise or NEP given: clearance unknown, the figure assumes noiseless electronics');
+    notes.push('electronic noise current from the NEP times the responsivity at this wavelength');
   }
-  const electronic = (qe: number, n: number | null): { eta: number; clearanceDb: number } => {
-    if (n === null) return { eta: 1, clearanceDb: Infinity };
-    if (n === 0 || qe === 0) return { eta: n === 0 ? 1 : 0, clearanceDb: n === 0 ? Infinity : 0 };
-    const s = ((2 * ELEMENTARY_CHARGE * qe * perQe * loPowerW) / n) / n;
-    return { eta: s / (1 + s), clearanceDb: 10 * Math.log10(1 + s) };
-  };
-  const qe = qeReading.qe;
-  const elNominal = electronic(qe.nominal, noise?.nominal ?? null);
-  const elWorst = electronic(qe.low, noise?.high ?? null);
+  const noiseless: Electronics = { eta: 1, clearanceDb: 0 };
+  const elNominal = noise === null ? noiseless : electronics(qe.nominal, perQe, loPowerW, noise.nominal);
+  const elWorst = noise === null ? noiseless : electronics(qe.low, perQe, loPowerW, noise.high);
   const etaNominal = chain * qe.nominal * elNominal.eta;
   const etaWorst = chain * qe.low * elWorst.eta;
   const figure = db(1 - etaNominal * k);
-  const worstDb = db(1 - etaWorst * k);
-  const antiSqueezedDb = -db(1 - etaNominal * (1 - rotateAnti(source, theta)));
-  const requiredQE = k > 0 ? totalRequired / (chain * elWorst.eta) : null;
+  const worst = db(1 - etaWorst * k);
+  const antiSqueezedDb = -db(1 + etaNominal * slopes.antiSqueezed);
+  const requiredQE =
+    k > 0 && elWorst.eta > 0 ? finiteResult('detector', totalRequired / (chain * elWorst.eta), 'required quantum efficiency') : null;
   if (requiredQE !== null && requiredQE > 1 && totalRequired <= 1) {
-    reasons.push(`needs a quantum efficiency of ${fmt(requiredQE, 4)}, above 1, with this detector's electronics: no detector of this noise reaches ${fmt(targetDb)} dB with this budget`);
+    reasons.push(
+      `needs a quantum efficiency of ${fmt(requiredQE, 4)}, above 1, with this detector's electronic noise: no such detector reaches ${fmt(targetDb)} dB with this budget`,
+    );
   }
 
-  let verdict = verdictOf(figure, worstDb, targetDb, 'higher-db');
-  let headroom: number | null = headroomOf(worstDb, targetDb, 'higher-db');
-  const blocking = reasons.length > (cap === 'marginal' ? 1 : 0);
-  if (blocking) {
+  let verdict = verdictOf(figure, worst, targetDb, 'higher-db');
+  let headroom: number | null = headroomOf(worst, targetDb, 'higher-db');
+  if (blocking.length > 0) {
     verdict = 'does-not-fit';
     headroom = null;
-  } else {
-    if (verdict === 'marginal') {
-      reasons.push(`worst case ${fmt(worstDb)} dB (QE at −tol, noise at +tol) misses the ${fmt(targetDb)} dB goal; nominal ${fmt(figure)} dB meets it`);
-    } else if (verdict === 'does-not-fit') {
-      reasons.push(`predicted ${fmt(figure)} dB misses the ${fmt(targetDb)} dB goal`);
-    }
-    verdict = worse(verdict, cap);
+  } else if (verdict === 'marginal') {
+    reasons.push(
+      `worst case ${fmt(worst)} dB (QE at −tol, noise at +tol) misses the ${fmt(targetDb)} dB goal; nominal ${fmt(figure)} dB meets it`,
+    );
+  } else if (verdict === 'does-not-fit') {
+    reasons.push(`predicted ${fmt(figure)} dB misses the ${fmt(targetDb)} dB goal`);
   }
-  if (d.cmrrDb !== undefined) nonNegative('detector.cmrrDb', d.cmrrDb);
+  if (noise === null) {
+    reasons.push('no input-referred noise or NEP given: clearance unknown, the figure assumes noiseless electronics');
+    verdict = worse(verdict, 'marginal');
+  }
 
   return {
-    ...base,
+    goal: targetDb,
+    unit: 'dB',
+    formula: FORMULA,
+    source: SOURCE,
+    requiredQEIdealElectronics,
     pass: verdict === 'fits',
     verdict,
     figure,
-    worst: worstDb,
+    worst,
     headroom,
-    reasons,
+    reasons: [...blocking, ...reasons],
     notes,
     requiredQE,
     quantumEfficiency: { nominal: qe.nominal, worst: qe.low },

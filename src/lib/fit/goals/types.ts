@@ -69,17 +69,12 @@ export interface MirrorSpec {
   ringdown?: RingdownMeasurement;
 }
 
-export type CavityTarget =
-  | { kind: 'finesse'; value: number }
-  | { kind: 'linewidth'; hz: number }
-  | { kind: 'storage-time'; s: number };
+export type CavityTarget = { kind: 'finesse'; value: number } | { kind: 'linewidth'; hz: number } | { kind: 'storage-time'; s: number };
 
 export type CavityConfiguration = 'pair' | 'with-own-mirror' | 'two-listings';
 
 /** The buyer's own mirror (mirror 1 in with-own-mirror): R, or T + loss in ppm. */
-export type OwnMirror =
-  | { reflectivity: number; rocMm: number | null }
-  | { transmissionPpm: number; lossPpm: number; rocMm: number | null };
+export type OwnMirror = { reflectivity: number; rocMm: number | null } | { transmissionPpm: number; lossPpm: number; rocMm: number | null };
 
 export interface AtomLine {
   wavelengthNm: number;
@@ -109,7 +104,8 @@ export interface MirrorAtWavelength {
   totalPpm: number;
   totalWorstPpm: number;
   totalBestPpm: number;
-  rocM: number;
+  /** Radius of curvature, m; null for a flat mirror. */
+  rocM: number | null;
 }
 
 export interface CavityGoalResult extends GoalResult {
@@ -219,9 +215,7 @@ export interface SinglePhotonDetectorSpec {
   cooling?: string;
 }
 
-export type CountingTarget =
-  | { kind: 'heralding'; efficiency: number }
-  | { kind: 'bell'; test: 'chsh' | 'eberhard' };
+export type CountingTarget = { kind: 'heralding'; efficiency: number } | { kind: 'bell'; test: 'chsh' | 'eberhard' };
 
 export interface CountingGoal {
   wavelengthNm: number;
@@ -273,9 +267,7 @@ export interface LaserSpec {
   m2?: number;
 }
 
-export type LaserWavelengthGoal =
-  | { kind: 'fixed'; nm: number; toleranceNm?: number }
-  | { kind: 'range'; minNm: number; maxNm: number };
+export type LaserWavelengthGoal = { kind: 'fixed'; nm: number; toleranceNm?: number } | { kind: 'range'; minNm: number; maxNm: number };
 
 export type LaserCoherenceGoal = { kind: 'linewidth'; maxHz: number } | { kind: 'coherence-length'; minM: number };
 
