@@ -5,7 +5,7 @@ import type { RoleName } from '../../lib/roles';
 import { hashPassword } from '../auth/password';
 import { newId } from '../auth/tokens';
 import { getDb } from './client';
-import { labMemberships, labs, userRoles, users, type LabMemberRole } from './schema';
+import { labMemberships, labs, listings, userRoles, users, type LabMemberRole, type Listing } from './schema';
 import { slugify } from '../labs/labs';
 
 export interface UserSpec {
@@ -45,4 +45,15 @@ export async function buildLab(spec: LabSpec): Promise<{ id: string; slug: strin
   await db.insert(labs).values({ id, slug, name: spec.name, institute: spec.institute, country: spec.country });
   if (spec.members.length) await db.insert(labMemberships).values(spec.members.map((m) => ({ labId: id, ...m })));
   return { id, slug };
+}
+
+export type ListingSpec = Pick<Listing, 'labId' | 'category' | 'title' | 'condition' | 'quantity' | 'priceCents' | 'currency' | 'shipsTo' | 'specs'> &
+  Partial<Pick<Listing, 'status' | 'description' | 'published' | 'createdBy' | 'hazards' | 'exportControlled' | 'exportNote' | 'submittedAt'>>;
+
+export async function buildListing(spec: ListingSpec): Promise<{ id: string }> {
+  const id = newId();
+  await getDb()
+    .insert(listings)
+    .values({ id, description: '', status: 'draft', ...spec });
+  return { id };
 }

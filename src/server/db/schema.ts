@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm';
 import { ROLE_NAMES, type RoleName } from '../../lib/roles';
-import { index, integer, primaryKey, sqliteTable, text } from 'drizzle-orm/sqlite-core';
+import { CATEGORIES, CONDITIONS, FILE_KINDS, LISTING_STATUSES, MEASUREMENT_KINDS, type Hazard, type Region } from '../../lib/listings/constants';
+import { index, integer, primaryKey, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 
 const createdAt = () =>
   integer('created_at', { mode: 'timestamp_ms' })
@@ -178,5 +179,135 @@ export const mailOutbox = sqliteTable(
   (t) => [index('mail_outbox_due_idx').on(t.status, t.nextAttemptAt)],
 );
 
+/** What the public sees of a listing: the last approved version, kept while an edit waits in review. */
+export interface PublishedListing {
+  title: string;
+  description: string;
+  condition: (typeof CONDITIONS)[number];
+  priceCents: number;
+  currency: string;
+  shipsTo: Region[];
+  specs: Record<string, unknown>;
+  approvedAt: number;
+}
+
+export const listings = sqliteTable(
+  'listings',
+  {
+    id: text('id').primaryKey(),
+    labId: text('lab_id')
+      .notNull()
+      .references(() => labs.id, { onDelete: 'restrict' }),
+    category: text('category', { enum: CATEGORIES }).notNull(),
+    status: text('status', { enum: LISTING_STATUSES }).notNull().default('draft'),
+    title: text('title').notNull(),
+    description: text('description').notNull().default(''),
+    condition: text('condition', { enum: CONDITIONS }).notNull(),
+    quantity: integer('quantity').notNull(),
+    priceCents: integer('price_cents').notNull(),
+    currency: text('currency').notNull(),
+    shipsTo: text('ships_to', { mode: 'json' }).$type<Region[]>().notNull(),
+    specs: text('specs', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
+    published: text('published', { mode: 'json' }).$type<PublishedListing>(),
+    reviewReason: text('review_reason'),
+    hazards: text('hazards', { mode: 'json' }).$type<Hazard[]>().notNull().default(sql`'[]'`),
+    exportControlled: integer('export_controlled', { mode: 'boolean' }).notNull().default(false),
+    exportNote: text('export_note'),
+    version: integer('version').notNull().default(1),
+    createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+    updatedAt: integer('updated_at', { mode: 'timestamp_ms' })
+      .notNull()
+      .default(sql`(unixepoch('subsec') * 1000)`),
+    submittedAt: integer('submitted_at', { mode: 'timestamp_ms' }),
+  },
+  (t) => [index('listings_lab_idx').on(t.labId), index('listings_status_idx').on(t.status, t.submittedAt), index('listings_updated_idx').on(t.updatedAt)],
+);
+
+export const FILE_STATUSES = ['pending', 'ready', 'refused'] as const;
+
+export interface FileVariants {
+  /** Re-encoded full image (no metadata), and WebP thumbnails. */
+  full?: string;
+  w320?: string;
+  w1280?: string;
+}
+
+export const listingFiles = sqliteTable(
+  'listing_files',
+  {
+    id: text('id').primaryKey(),
+    listingId: text('listing_id')
+      .notNull()
+      .references(() => listings.id, { onDelete: 'cascade' }),
+    kind: text('kind', { enum: FILE_KINDS }).notNull(),
+    measurementKind: text('measurement_kind', { enum: MEASUREMENT_KINDS }),
+    filename: text('filename').notNull(),
+    contentType: text('content_type').notNull(),
+    size: integer('size').notNull(),
+    storageKey: text('storage_key').notNull(),
+    status: text('status', { enum: FILE_STATUSES }).notNull().default('pending'),
+    error: text('error'),
+    width: integer('width'),
+    height: integer('height'),
+    variants: text('variants', { mode: 'json' }).$type<FileVariants>(),
+    data: text('data', { mode: 'json' }).$type<Record<string, unknown>>(),
+    position: integer('position').notNull().default(0),
+    createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+  },
+  (t) => [index('listing_files_listing_idx').on(t.listingId, t.kind)],
+);
+
+export const listingThreads = sqliteTable(
+  'listing_threads',
+  {
+    id: text('id').primaryKey(),
+    listingId: text('listing_id')
+      .notNull()
+      .references(() => listings.id, { onDelete: 'cascade' }),
+    buyerId: text('buyer_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    createdAt: createdAt(),
+    lastMessageAt: integer('last_message_at', { mode: 'timestamp_ms' }).notNull(),
+  },
+  (t) => [uniqueIndex('listing_threads_pair_idx').on(t.listingId, t.buyerId)],
+);
+
+export const listingMessages = sqliteTable(
+  'listing_messages',
+  {
+    id: text('id').primaryKey(),
+    threadId: text('thread_id')
+      .notNull()
+      .references(() => listingThreads.id, { onDelete: 'cascade' }),
+    authorId: text('author_id').references(() => users.id, { onDelete: 'set null' }),
+    body: text('body').notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index('listing_messages_thread_idx').on(t.threadId, t.createdAt)],
+);
+
+export const REPORT_STATUSES = ['open', 'resolved'] as const;
+
+export const listingReports = sqliteTable(
+  'listing_reports',
+  {
+    id: text('id').primaryKey(),
+    listingId: text('listing_id')
+      .notNull()
+      .references(() => listings.id, { onDelete: 'cascade' }),
+    reporterId: text('reporter_id').references(() => users.id, { onDelete: 'set null' }),
+    reason: text('reason').notNull(),
+    status: text('status', { enum: REPORT_STATUSES }).notNull().default('open'),
+    resolvedBy: text('resolved_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+  },
+  (t) => [index('listing_reports_listing_idx').on(t.listingId, t.status)],
+);
+
 export type User = typeof users.$inferSelect;
+export type Listing = typeof listings.$inferSelect;
+export type ListingFile = typeof listingFiles.$inferSelect;
 export type Lab = typeof labs.$inferSelect;

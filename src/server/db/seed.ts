@@ -6,6 +6,7 @@ import { sql } from 'drizzle-orm';
 import { getDb } from './client';
 import { users } from './schema';
 import { buildLab, buildUser } from './factories';
+import { seedListings } from './seed-listings';
 
 export const DEMO_PASSWORD = 'demo-password-1';
 
@@ -63,5 +64,9 @@ export async function seedDemo() {
       members: [{ userId: buyer.id, role: 'owner' }],
     }),
   };
-  return { users: { buyer, seller, seller2, seller3, member, moderator, admin }, labs };
+  const listings = await seedListings(
+    { cavity: labs.cavity.id, squeezing: labs.squeezing.id, startup: labs.startup.id },
+    { cavity: seller.id, squeezing: seller2.id, startup: seller3.id },
+  );
+  return { users: { buyer, seller, seller2, seller3, member, moderator, admin }, labs, listings };
 }
