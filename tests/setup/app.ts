@@ -44,7 +44,7 @@ async function waitUntilUp(origin: string, child: ChildProcess, log: () => strin
   throw new Error(`The app did not start:\n${log()}`);
 }
 
-export async function startTestApp(opts: { seed?: boolean; env?: Record<string, string>; dir?: string; port?: number } = {}): Promise<TestApp> {
+export async function startTestApp(opts: { seed?: boolean; files?: boolean; env?: Record<string, string>; dir?: string; port?: number } = {}): Promise<TestApp> {
   const dir = opts.dir ?? mkdtempSync(join(tmpdir(), 'lightyard-test-'));
   const mailDir = join(dir, 'mail');
   const port = opts.port ?? (await freePort());
@@ -77,7 +77,7 @@ export async function startTestApp(opts: { seed?: boolean; env?: Record<string, 
   await migrateDatabase();
   if (opts.seed !== false) {
     const { seedDemo } = await import('../../src/server/db/seed');
-    await seedDemo();
+    await seedDemo({ files: opts.files ?? false });
   }
   let output = '';
   const child = spawn(process.execPath, ['dist/server/entry.mjs'], { env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });

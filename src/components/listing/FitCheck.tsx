@@ -35,7 +35,8 @@ interface Mode {
 
 function cavityMode(c: Extract<FitCandidate, { kind: 'mirror' }>, quantity: number): Mode {
   return {
-    defaults: { wavelengthNm: String(c.spec.designWavelengthNm), lengthMm: '50', targetKind: 'finesse', target: '100000', configuration: quantity >= 2 ? 'pair' : 'with-own-mirror', ownR: '99.999', ownRocMm: '', extraLossPpm: '0', atomNm: '', atomGammaMHz: '' },
+    // a default length the radii can hold: 50 mm, or shorter than the mirrors' radius
+    defaults: { wavelengthNm: String(c.spec.designWavelengthNm), lengthMm: String(c.spec.rocMm ? Math.min(50, Math.round(c.spec.rocMm * 0.8)) : 50), targetKind: 'finesse', target: '100000', configuration: quantity >= 2 ? 'pair' : 'with-own-mirror', ownR: '99.999', ownRocMm: '', extraLossPpm: '0', atomNm: '', atomGammaMHz: '' },
     fields: [
       { key: 'wavelengthNm', label: 'Wavelength', unit: 'nm' },
       { key: 'lengthMm', label: 'Cavity length', unit: 'mm' },

@@ -7,7 +7,7 @@ export default function MeasurementPlot({ data, filename }: { data: MeasurementD
   if (data.kind === 'ringdown') {
     const { fit, figures } = data;
     const t = data.points.map((p) => p.timeS * 1e6);
-    const fitted = new Map(fit.curve.map((p) => [p.timeS, p.intensity]));
+    const model = (timeS: number) => (timeS < fit.fitStartS ? null : fit.amplitude * Math.exp(-(timeS - fit.fitStartS) / fit.tauS) + fit.offset);
     return (
       <div data-testid="measurement-ringdown">
         <p className="text-sm">
@@ -25,7 +25,7 @@ export default function MeasurementPlot({ data, filename }: { data: MeasurementD
           x={t}
           series={[
             { label: 'measured', values: data.points.map((p) => (p.intensity > 0 ? p.intensity : null)) },
-            { label: 'fit A·e^(−t/τ) + B', values: data.points.map((p) => fitted.get(p.timeS) ?? null), dashed: true },
+            { label: 'fit A·e^(−t/τ) + B', values: data.points.map((p) => model(p.timeS)), dashed: true },
           ]}
           xLabel="time (µs)"
           yLabel="intensity"

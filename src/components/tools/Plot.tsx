@@ -28,7 +28,7 @@ const INK = '#131c2e';
 
 /** Ticks as 10k, 1M, 2.5µ… so log axes over decades stay readable. */
 function tickLabels(_u: uPlot, splits: number[]): string[] {
-  return splits.map((v) => (v === 0 ? '0' : formatSI(v, '', 2).replace(THIN, '')));
+  return splits.map((v) => (v === 0 ? '0' : formatSI(v, '', 3).replace(THIN, '')));
 }
 const RULE = '#d9d6cc';
 const COLOURS = ['#1d5f8a', '#8a5a12', '#23613f', '#6b3fa0'];
@@ -53,7 +53,7 @@ export function Plot(props: PlotProps) {
           { label: props.xLabel, stroke: INK, grid: { stroke: RULE, width: 1 }, ticks: { stroke: RULE }, values: tickLabels },
           { label: props.yLabel, stroke: INK, grid: { stroke: RULE, width: 1 }, ticks: { stroke: RULE }, size: 72, values: tickLabels },
         ],
-        legend: { show: props.series.length > 1 },
+        legend: { show: props.series.length > 1, live: false },
         cursor: { drag: { x: false, y: false } },
         series: [
           { label: props.xLabel },

@@ -7,6 +7,7 @@ import { getDb } from './client';
 import { users } from './schema';
 import { buildLab, buildUser } from './factories';
 import { seedListings } from './seed-listings';
+import { seedListingFiles } from './seed-files';
 
 export const DEMO_PASSWORD = 'demo-password-1';
 
@@ -25,7 +26,8 @@ export async function isEmpty(): Promise<boolean> {
   return (row?.n ?? 0) === 0;
 }
 
-export async function seedDemo() {
+/** `files: false` skips photos and measurement files (they need object storage, and tests rarely want them). */
+export async function seedDemo(opts: { files?: boolean } = {}) {
   const password = DEMO_PASSWORD;
   const buyer = await buildUser({ email: DEMO_ACCOUNTS.buyer, name: 'Mireille Aubertin', password, roles: ['buyer'] });
   const seller = await buildUser({ email: DEMO_ACCOUNTS.seller, name: 'Ingrid Solvang', password, roles: ['buyer', 'seller'] });
@@ -64,9 +66,8 @@ export async function seedDemo() {
       members: [{ userId: buyer.id, role: 'owner' }],
     }),
   };
-  const listings = await seedListings(
-    { cavity: labs.cavity.id, squeezing: labs.squeezing.id, startup: labs.startup.id },
-    { cavity: seller.id, squeezing: seller2.id, startup: seller3.id },
-  );
+  const sellers = { cavity: seller.id, squeezing: seller2.id, startup: seller3.id };
+  const listings = await seedListings({ cavity: labs.cavity.id, squeezing: labs.squeezing.id, startup: labs.startup.id }, sellers);
+  if (opts.files !== false) await seedListingFiles(listings, sellers);
   return { users: { buyer, seller, seller2, seller3, member, moderator, admin }, labs, listings };
 }
