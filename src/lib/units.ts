@@ -45,15 +45,17 @@ function trimmed(x: number, sig: number): string {
   return String(Number(x.toPrecision(sig)));
 }
 
+/** The prefix whose mantissa lands in 1–999 (0.9995 so that 999.6 reads 1 k, not 1000). */
+export function siPrefix(x: number): [factor: number, prefix: string] {
+  const a = Math.abs(x);
+  if (a === 0) return [1, ''];
+  return PREFIXES.find(([f]) => a >= f * 0.9995) ?? PREFIXES[PREFIXES.length - 1]!;
+}
+
 /** 47716 Hz → "47.7 kHz"; 3.335e-6 s → "3.34 µs" (thin space). */
 export function formatSI(value: number, unit: string, sig = 3): string {
   if (!Number.isFinite(value)) return '—';
-  if (value === 0) return `0${THIN}${unit}`;
-  const a = Math.abs(value);
-  for (const [f, p] of PREFIXES) {
-    if (a >= f * 0.9995) return `${trimmed(value / f, sig)}${THIN}${p}${unit}`;
-  }
-  const [f, p] = PREFIXES[PREFIXES.length - 1]!;
+  const [f, p] = siPrefix(value);
   return `${trimmed(value / f, sig)}${THIN}${p}${unit}`;
 }
 

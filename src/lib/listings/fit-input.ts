@@ -3,7 +3,8 @@
  * category: a measured spectrum, ring-down or efficiency curve is attached where the engine uses it.
  */
 import type { LaserSpec, MirrorSpec, PhotodiodeSpec, SinglePhotonDetectorSpec } from '../fit';
-import type { MeasurementData } from '../measurements/types';
+import { toEfficiencyCurve, toMirrorSpectrum, toQeCurve, toRingdownMeasurement } from '../measurements';
+import type { EfficiencyCurveData, MeasurementData } from '../measurements/types';
 import type { Category } from './constants';
 
 export type FitCandidate =
@@ -13,31 +14,29 @@ export type FitCandidate =
   | { kind: 'laser'; spec: LaserSpec }
   | { kind: 'none' };
 
+const curveOf = (ms: readonly MeasurementData[]) => ms.find((m): m is EfficiencyCurveData => m.kind === 'efficiency-curve');
+
 export function fitCandidate(category: Category, specs: Record<string, unknown>, measurements: readonly MeasurementData[] = []): FitCandidate {
   switch (category) {
     case 'cavity-mirror': {
       const spec = { ...(specs as unknown as MirrorSpec) };
       for (const m of measurements) {
-        if (m.kind === 'spectrum' && m.quantity !== 'reflectance' && !spec.spectrum) {
-          spec.spectrum = { points: m.points.map((p) => ({ wavelengthNm: p.wavelengthNm, transmissionPpm: p.transmissionPpm, ...('lossPpm' in p ? { lossPpm: p.lossPpm } : {}) })) };
-        }
-        if (m.kind === 'ringdown' && !spec.ringdown && m.lengthM !== null) {
-          spec.ringdown = { wavelengthNm: m.wavelengthNm ?? spec.designWavelengthNm, lengthM: m.lengthM, tauS: m.fit.tauS };
-        }
+        spec.spectrum ??= toMirrorSpectrum(m) ?? undefined;
+        if (m.kind === 'ringdown') spec.ringdown ??= toRingdownMeasurement(m, { wavelengthNm: spec.designWavelengthNm }) ?? undefined;
       }
       return { kind: 'mirror', spec };
     }
     case 'photodiode':
     case 'balanced-detector': {
       const spec = { ...(specs as unknown as PhotodiodeSpec) };
-      const curve = measurements.find((m) => m.kind === 'efficiency-curve');
-      if (curve && curve.kind === 'efficiency-curve' && !spec.qeCurve) spec.qeCurve = curve.points.map((p) => ({ wavelengthNm: p.wavelengthNm, qe: p.efficiency }));
+      const curve = curveOf(measurements);
+      if (curve) spec.qeCurve ??= toQeCurve(curve);
       return { kind: 'photodiode', spec };
     }
     case 'single-photon-detector': {
       const spec = { ...(specs as unknown as SinglePhotonDetectorSpec) };
-      const curve = measurements.find((m) => m.kind === 'efficiency-curve');
-      if (curve && curve.kind === 'efficiency-curve' && !spec.efficiencyCurve) spec.efficiencyCurve = curve.points.map((p) => ({ wavelengthNm: p.wavelengthNm, efficiency: p.efficiency }));
+      const curve = curveOf(measurements);
+      if (curve) spec.efficiencyCurve ??= toEfficiencyCurve(curve);
       return { kind: 'counter', spec };
     }
     case 'laser':

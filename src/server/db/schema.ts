@@ -307,7 +307,220 @@ export const listingReports = sqliteTable(
   (t) => [index('listing_reports_listing_idx').on(t.listingId, t.status)],
 );
 
+export const SEARCH_MODES = ['text', 'cavity', 'squeezing', 'counting', 'laser'] as const;
+
+/** A buyer's saved search: the whole query as the search page has it in its URL. */
+export const savedSearches = sqliteTable(
+  'saved_searches',
+  {
+    id: text('id').primaryKey(),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    mode: text('mode', { enum: SEARCH_MODES }).notNull(),
+    query: text('query', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
+    /** Only its hash is stored; the e-mail carries the token for the sign-in-free unsubscribe link. */
+    unsubscribeTokenHash: text('unsubscribe_token_hash').notNull().unique(),
+    active: integer('active', { mode: 'boolean' }).notNull().default(true),
+    lastNotifiedAt: integer('last_notified_at', { mode: 'timestamp_ms' }),
+    createdAt: createdAt(),
+  },
+  (t) => [index('saved_searches_user_idx').on(t.userId), index('saved_searches_active_idx').on(t.active)],
+);
+
+/** Which listings a saved search already announced, so a listing is mailed at most once per search. */
+export const savedSearchHits = sqliteTable(
+  'saved_search_hits',
+  {
+    savedSearchId: text('saved_search_id')
+      .notNull()
+      .references(() => savedSearches.id, { onDelete: 'cascade' }),
+    listingId: text('listing_id')
+      .notNull()
+      .references(() => listings.id, { onDelete: 'cascade' }),
+    notifiedAt: integer('notified_at', { mode: 'timestamp_ms' }),
+    createdAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.savedSearchId, t.listingId] })],
+);
+
+export const cartItems = sqliteTable(
+  'cart_items',
+  {
+    id: text('id').primaryKey(),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    listingId: text('listing_id')
+      .notNull()
+      .references(() => listings.id, { onDelete: 'cascade' }),
+    quantity: integer('quantity').notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex('cart_items_user_listing_idx').on(t.userId, t.listingId)],
+);
+
+export const CHECKOUT_STATUSES = ['open', 'complete', 'expired', 'failed'] as const;
+
+/** One payment-provider Checkout Session, paying one or more orders (one per lab). */
+export const checkouts = sqliteTable(
+  'checkouts',
+  {
+    id: text('id').primaryKey(),
+    buyerId: text('buyer_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'restrict' }),
+    providerSessionId: text('provider_session_id').unique(),
+    status: text('status', { enum: CHECKOUT_STATUSES }).notNull().default('open'),
+    currency: text('currency').notNull(),
+    amountCents: integer('amount_cents').notNull(),
+    /** Stock is held until then; released on expiry, decline or cancel. */
+    reservedUntil: integer('reserved_until', { mode: 'timestamp_ms' }).notNull(),
+    releasedAt: integer('released_at', { mode: 'timestamp_ms' }),
+    createdAt: createdAt(),
+  },
+  (t) => [index('checkouts_status_idx').on(t.status, t.reservedUntil)],
+);
+
+export const ORDER_STATUSES = ['pending_payment', 'paid', 'shipped', 'received', 'completed', 'refund_requested', 'refunded', 'cancelled'] as const;
+export type OrderStatus = (typeof ORDER_STATUSES)[number];
+
+export const orders = sqliteTable(
+  'orders',
+  {
+    id: text('id').primaryKey(),
+    checkoutId: text('checkout_id')
+      .notNull()
+      .references(() => checkouts.id, { onDelete: 'restrict' }),
+    buyerId: text('buyer_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'restrict' }),
+    labId: text('lab_id')
+      .notNull()
+      .references(() => labs.id, { onDelete: 'restrict' }),
+    status: text('status', { enum: ORDER_STATUSES }).notNull().default('pending_payment'),
+    currency: text('currency').notNull(),
+    subtotalCents: integer('subtotal_cents').notNull(),
+    /** Platform fee in basis points at the time of the order (800 = 8 %). */
+    feeBps: integer('fee_bps').notNull(),
+    feeCents: integer('fee_cents').notNull(),
+    refundedCents: integer('refunded_cents').notNull().default(0),
+    paymentIntentId: text('payment_intent_id'),
+    chargeId: text('charge_id'),
+    carrier: text('carrier'),
+    trackingNumber: text('tracking_number'),
+    endUseStatement: text('end_use_statement'),
+    refundReason: text('refund_reason'),
+    paidAt: integer('paid_at', { mode: 'timestamp_ms' }),
+    shippedAt: integer('shipped_at', { mode: 'timestamp_ms' }),
+    receivedAt: integer('received_at', { mode: 'timestamp_ms' }),
+    inspectionEndsAt: integer('inspection_ends_at', { mode: 'timestamp_ms' }),
+    completedAt: integer('completed_at', { mode: 'timestamp_ms' }),
+    transferId: text('transfer_id'),
+    version: integer('version').notNull().default(1),
+    createdAt: createdAt(),
+    updatedAt: integer('updated_at', { mode: 'timestamp_ms' })
+      .notNull()
+      .default(sql`(unixepoch('subsec') * 1000)`),
+  },
+  (t) => [index('orders_buyer_idx').on(t.buyerId), index('orders_lab_idx').on(t.labId, t.status), index('orders_checkout_idx').on(t.checkoutId)],
+);
+
+export const orderItems = sqliteTable(
+  'order_items',
+  {
+    id: text('id').primaryKey(),
+    orderId: text('order_id')
+      .notNull()
+      .references(() => orders.id, { onDelete: 'cascade' }),
+    listingId: text('listing_id')
+      .notNull()
+      .references(() => listings.id, { onDelete: 'restrict' }),
+    title: text('title').notNull(),
+    unitPriceCents: integer('unit_price_cents').notNull(),
+    quantity: integer('quantity').notNull(),
+  },
+  (t) => [index('order_items_order_idx').on(t.orderId)],
+);
+
+/** Webhook events already handled, so a redelivered event changes nothing. */
+export const providerEvents = sqliteTable('provider_events', {
+  id: text('id').primaryKey(),
+  type: text('type').notNull(),
+  receivedAt: createdAt(),
+});
+
+export const payoutAccounts = sqliteTable('payout_accounts', {
+  labId: text('lab_id')
+    .primaryKey()
+    .references(() => labs.id, { onDelete: 'cascade' }),
+  providerAccountId: text('provider_account_id').notNull().unique(),
+  detailsSubmitted: integer('details_submitted', { mode: 'boolean' }).notNull().default(false),
+  chargesEnabled: integer('charges_enabled', { mode: 'boolean' }).notNull().default(false),
+  payoutsEnabled: integer('payouts_enabled', { mode: 'boolean' }).notNull().default(false),
+  updatedAt: integer('updated_at', { mode: 'timestamp_ms' })
+    .notNull()
+    .default(sql`(unixepoch('subsec') * 1000)`),
+});
+
+export const transfers = sqliteTable(
+  'transfers',
+  {
+    id: text('id').primaryKey(),
+    orderId: text('order_id')
+      .notNull()
+      .unique()
+      .references(() => orders.id, { onDelete: 'restrict' }),
+    labId: text('lab_id')
+      .notNull()
+      .references(() => labs.id, { onDelete: 'restrict' }),
+    amountCents: integer('amount_cents').notNull(),
+    currency: text('currency').notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index('transfers_lab_idx').on(t.labId)],
+);
+
+export const PAYOUT_STATUSES = ['pending', 'in_transit', 'paid', 'failed', 'canceled'] as const;
+
+export const payouts = sqliteTable(
+  'payouts',
+  {
+    id: text('id').primaryKey(),
+    labId: text('lab_id')
+      .notNull()
+      .references(() => labs.id, { onDelete: 'restrict' }),
+    amountCents: integer('amount_cents').notNull(),
+    currency: text('currency').notNull(),
+    status: text('status', { enum: PAYOUT_STATUSES }).notNull(),
+    failureMessage: text('failure_message'),
+    createdAt: createdAt(),
+    updatedAt: integer('updated_at', { mode: 'timestamp_ms' })
+      .notNull()
+      .default(sql`(unixepoch('subsec') * 1000)`),
+  },
+  (t) => [index('payouts_lab_idx').on(t.labId)],
+);
+
+export const refunds = sqliteTable(
+  'refunds',
+  {
+    id: text('id').primaryKey(),
+    orderId: text('order_id')
+      .notNull()
+      .references(() => orders.id, { onDelete: 'restrict' }),
+    amountCents: integer('amount_cents').notNull(),
+    reason: text('reason').notNull(),
+    createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+  },
+  (t) => [index('refunds_order_idx').on(t.orderId)],
+);
+
 export type User = typeof users.$inferSelect;
 export type Listing = typeof listings.$inferSelect;
 export type ListingFile = typeof listingFiles.$inferSelect;
+export type Order = typeof orders.$inferSelect;
+export type Checkout = typeof checkouts.$inferSelect;
 export type Lab = typeof labs.$inferSelect;

@@ -7,7 +7,7 @@ import { and, eq, inArray, lt, ne, sql } from 'drizzle-orm';
 import sharp from 'sharp';
 import type { FileKind, MeasurementKind } from '../../lib/listings/constants';
 import { MAX_PHOTOS_PER_LISTING, UPLOAD_LIMITS, type CreateUpload, type FileVariant } from '../../lib/schemas/uploads';
-import { parseMeasurementCsv, type MeasurementData } from '../../lib/measurements';
+import { forStorage, parseMeasurementCsv, type MeasurementData } from '../../lib/measurements';
 import { audit } from '../audit/log';
 import type { CurrentUser } from '../auth/users';
 import { newId } from '../auth/tokens';
@@ -291,7 +291,7 @@ function acceptMeasurement(file: ListingFile, bytes: Buffer): Accepted {
     const { line, column, message } = parsed.error;
     throw new Refusal(`Line ${line}${column === null ? '' : `, column ${column}`}: ${message}`);
   }
-  return { contentType: 'text/csv', data: parsed.data as unknown as Record<string, unknown> };
+  return { contentType: 'text/csv', data: forStorage(parsed.data) as unknown as Record<string, unknown> };
 }
 
 async function accept(file: ListingFile): Promise<Accepted> {

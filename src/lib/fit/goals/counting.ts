@@ -15,6 +15,9 @@ import { nearWavelength, readCurve, spread, type Spread } from './spec';
 import type { Constraint, CountingGoal, CountingGoalResult, SinglePhotonDetectorSpec } from './types';
 import { constraint, limiting, worse } from './verdict';
 
+/** Cooling words that mean cryogens or a cryostat (not room temperature or a thermoelectric cooler). */
+const CRYOGENIC = /cryo|helium|nitrogen|kelvin|\d\s*K\b/i;
+
 const FORMULA =
   'η_sys = η_det·η_opt·erf(W/(2√2σ)) against the threshold; CAR = C/A with C = R·η_opt·η_det²·capture, A = N²·τ_c, N = η_det·R + D; dead-time loss = r·τ_d/(1 + r·τ_d), r = η_det·R + D (non-paralyzable)';
 const SOURCE =
@@ -91,7 +94,8 @@ export function evaluateCountingGoal(goal: CountingGoal, detector: SinglePhotonD
   if (afterpulsing !== null && afterpulsing > 0) {
     notes.push(`afterpulsing ${formatPercent(afterpulsing)} adds correlated false counts, not included`);
   }
-  if (typeof d.cooling === 'string' && d.cooling.trim() !== '') {
+  // room-temperature and thermoelectric cooling carry no cryogenic hazard
+  if (typeof d.cooling === 'string' && CRYOGENIC.test(d.cooling)) {
     notes.push(`cooling (${d.cooling}): cryogenics and pressurised helium need local safety rules and trained handling`);
   }
 
