@@ -1,12 +1,8 @@
 import { defineMiddleware } from 'astro:middleware';
 import { readSession } from './server/auth/session';
 import { loadCurrentUser } from './server/auth/users';
-import { migrateDatabase } from './server/db/migrate';
+import { ensureRuntime } from './server/runtime';
 import { errorBody, jsonResponse } from './server/http/errors';
-
-let migrated: Promise<void> | undefined;
-/** Migrations apply once per process, at its first request (a no-op when the database is current). */
-const ready = () => (migrated ??= migrateDatabase());
 
 /**
  * Validates the session cookie and fills Astro.locals; authorization is the guards' job.
@@ -17,7 +13,7 @@ export const onRequest = defineMiddleware(async ({ cookies, locals, isPrerendere
   locals.user = null;
   locals.session = null;
   if (isPrerendered) return next();
-  await ready();
+  await ensureRuntime();
   const session = await readSession(cookies);
   if (session) {
     const user = await loadCurrentUser(session.userId);

@@ -29,6 +29,14 @@ export const ConfigSchema = z.object({
   STRIPE_SECRET_KEY: z.string().default('sk_test_lightyard_fake'),
   STRIPE_API_BASE: z.string().url().optional(),
   STRIPE_WEBHOOK_SECRET: z.string().default('whsec_lightyard_local_fake'),
+  /** Platform fee in basis points of the order subtotal (800 = 8 %). */
+  PLATFORM_FEE_BPS: z.coerce.number().int().min(0).max(5000).default(800),
+  /** How long checkout holds the stock, seconds (30 minutes). */
+  RESERVATION_SECONDS: z.coerce.number().int().min(1).max(86_400).default(1800),
+  /** How often the background jobs run (reservations, inspection windows), ms. */
+  JOBS_INTERVAL_MS: z.coerce.number().int().min(200).max(3_600_000).default(60_000),
+  /** The buyer's inspection window after shipping, days. */
+  INSPECTION_DAYS: z.coerce.number().int().min(1).max(90).default(14),
   FAKES: flag,
   TRUST_PROXY: flag,
 });
