@@ -13,9 +13,10 @@ function keyFromHeader(authorization: string): string {
   return '';
 }
 
-/** Throws the provider's 401 unless the request carries a test-mode secret or restricted key. */
-export function requireTestModeKey(authorization: string | undefined): void {
+/** The request's test-mode secret or restricted key; the provider's 401 for anything else. */
+export function requireTestModeKey(authorization: string | undefined): string {
   const key = authorization ? keyFromHeader(authorization) : '';
   if (key === '') throw missingApiKey();
   if (!TEST_KEY.test(key)) throw invalidApiKey(key);
+  return key;
 }

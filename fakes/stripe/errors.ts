@@ -5,6 +5,9 @@ export interface StripeErrorBody {
   code?: string;
   param?: string;
   doc_url?: string;
+  /** Card errors: the issuer's reason, and the charge the attempt left behind. */
+  decline_code?: string;
+  charge?: string;
 }
 
 /** Thrown by any part of the fake; the server turns it into `{ error }` with `status`. */
@@ -35,9 +38,25 @@ export function invalidRequest(
   return new StripeFakeError(status, withDocUrl(body));
 }
 
-/** `noun` as the provider names objects in this message: `customer`, `checkout.session`. */
-export function resourceMissing(noun: string, id: string, param = 'id'): StripeFakeError {
-  return invalidRequest(`No such ${noun}: '${id}'`, { status: 404, code: 'resource_missing', param });
+/**
+ * `noun` as the provider names objects in this message: `customer`, `checkout.session`. An id in
+ * the path is a 404; an id given as a parameter (`payment_intent=pi_…`) is a 400.
+ */
+export function resourceMissing(noun: string, id: string, param = 'id', status = 404): StripeFakeError {
+  return invalidRequest(`No such ${noun}: '${id}'`, { status, code: 'resource_missing', param });
+}
+
+export function missingParam(param: string): StripeFakeError {
+  return invalidRequest(`Missing required param: ${param}.`, { code: 'parameter_missing', param });
+}
+
+export function unknownParam(param: string): StripeFakeError {
+  return invalidRequest(`Received unknown parameter: ${param}`, { code: 'parameter_unknown', param });
+}
+
+/** A 402 `card_error`, which the SDK raises as StripeCardError. */
+export function cardError(body: Omit<StripeErrorBody, 'type'> & { code: string }): StripeFakeError {
+  return new StripeFakeError(402, withDocUrl({ type: 'card_error', ...body }));
 }
 
 export function unrecognizedUrl(method: string, path: string): StripeFakeError {
@@ -54,10 +73,20 @@ export function missingApiKey(): StripeFakeError {
   );
 }
 
+function maskKey(key: string): string {
+  return key.length > 12 ? `${key.slice(0, 8)}${'*'.repeat(key.length - 12)}${key.slice(-4)}` : key;
+}
+
 export function invalidApiKey(key: string): StripeFakeError {
-  const masked =
-    key.length > 12 ? `${key.slice(0, 8)}${'*'.repeat(key.length - 12)}${key.slice(-4)}` : key;
-  return invalidRequest(`Invalid API Key provided: ${masked}`, { status: 401 });
+  return invalidRequest(`Invalid API Key provided: ${maskKey(key)}`, { status: 401 });
+}
+
+/** A `Stripe-Account` header naming an account the key cannot act for: the SDK's StripePermissionError. */
+export function accountNotAccessible(key: string, account: string): StripeFakeError {
+  return invalidRequest(
+    `The provided key '${maskKey(key)}' does not have access to account '${account}' (or that account does not exist). Application access may have been revoked.`,
+    { status: 403 },
+  );
 }
 
 function idempotencyError(status: number, message: string): StripeFakeError {

@@ -20,7 +20,13 @@ function keySegments(key: string): string[] {
 }
 
 function paramName(segments: string[]): string {
-  return segments[0] + segments.slice(1).map((segment) => `[${segment}]`).join('');
+  return (
+    segments[0] +
+    segments
+      .slice(1)
+      .map((segment) => `[${segment}]`)
+      .join('')
+  );
 }
 
 function isIndex(segment: string): boolean {

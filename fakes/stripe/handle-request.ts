@@ -1,7 +1,8 @@
 import type { IncomingHttpHeaders, IncomingMessage } from 'node:http';
 import { requireTestModeKey } from './auth';
 import type { StripeFakeContext } from './context';
-import { resourceMissing, StripeFakeError, unexpectedFailure, unrecognizedUrl } from './errors';
+import { accountNotAccessible, resourceMissing, StripeFakeError, unexpectedFailure, unrecognizedUrl } from './errors';
+import { expandPaths, expandResponse, type VirtualField } from './expand';
 import { parseFormBody } from './form-body';
 import type { IdempotencyKeys } from './idempotency';
 import { newId } from './ids';
@@ -37,7 +38,7 @@ function headerValue(headers: IncomingHttpHeaders, name: string): string | undef
   return Array.isArray(value) ? value[0] : value;
 }
 
-async function readBody(request: IncomingMessage): Promise<string> {
+export async function readBody(request: IncomingMessage): Promise<string> {
   const chunks: Buffer[] = [];
   for await (const chunk of request) chunks.push(chunk as Buffer);
   return Buffer.concat(chunks).toString('utf8');
@@ -53,13 +54,12 @@ export function errorResponse(error: unknown, requestId: string): StoredResponse
   return { status: known.status, body: { error: known.body }, requestId };
 }
 
-async function run(
-  handler: RouteHandler<StripeFakeContext>,
-  request: FakeRequest,
-  context: StripeFakeContext,
-  requestId: string,
-): Promise<StoredResponse> {
-  return { status: 200, body: await handler(request, context), requestId };
+/** The connected account a request acts for: '' without `Stripe-Account`, a 403 for one that does not exist. */
+function actingAccount(headers: IncomingHttpHeaders, key: string | undefined, context: StripeFakeContext): string {
+  const account = headerValue(headers, 'stripe-account')?.trim() ?? '';
+  if (account === '' || key === undefined) return account;
+  if (!context.state.get('account', account)) throw accountNotAccessible(key, account);
+  return account;
 }
 
 /**
@@ -71,15 +71,21 @@ export function createRequestHandler(
   context: StripeFakeContext,
   idempotency: IdempotencyKeys,
   apiVersion: string,
+  virtualFields: Record<string, VirtualField>,
 ): (request: IncomingMessage) => Promise<Reply> {
-  async function runIdempotent(
-    match: RouteMatch<StripeFakeContext>,
-    request: FakeRequest,
-    key: string,
-    requestId: string,
-  ): Promise<Reply> {
+  /**
+   * The body is a copy, expanded as `expand[]` asks: a stored object changes later, while the
+   * response (and its idempotent replay) must stay as it was.
+   */
+  async function run(handler: RouteHandler<StripeFakeContext>, request: FakeRequest): Promise<StoredResponse> {
+    const body: unknown = structuredClone(await handler(request, context));
+    expandResponse(body, expandPaths(request.query, request.body), { state: context.state, account: request.account, virtualFields });
+    return { status: 200, body, requestId: request.requestId };
+  }
+
+  async function runIdempotent(match: RouteMatch<StripeFakeContext>, request: FakeRequest, key: string): Promise<Reply> {
     const outcome = idempotency.begin({
-      account: headerValue(request.headers, 'stripe-account') ?? '',
+      account: request.account,
       key,
       path: request.path,
       rawBody: request.rawBody,
@@ -89,13 +95,13 @@ export function createRequestHandler(
       return { response: outcome.response, headers: { ...headers, 'Idempotent-Replayed': 'true' } };
     }
     try {
-      const response = await run(match.handler, request, context, requestId);
+      const response = await run(match.handler, request);
       outcome.finish(response);
       return { response, headers };
     } catch (error) {
       // A declined card (402) is an outcome the provider replays; other failures are not kept.
       if (error instanceof StripeFakeError && error.status === 402) {
-        const response = errorResponse(error, requestId);
+        const response = errorResponse(error, request.requestId);
         outcome.finish(response);
         return { response, headers };
       }
@@ -113,9 +119,7 @@ export function createRequestHandler(
     const idempotencyKey = method === 'POST' ? headerValue(incoming.headers, 'idempotency-key') : undefined;
 
     try {
-      if (!url.pathname.startsWith(CONTROL_PREFIX)) {
-        requireTestModeKey(headerValue(incoming.headers, 'authorization'));
-      }
+      const key = url.pathname.startsWith(CONTROL_PREFIX) ? undefined : requireTestModeKey(headerValue(incoming.headers, 'authorization'));
       const match = router.match(method, url.pathname);
       if (!match) throw noRoute(method, url.pathname);
       const isJson = headerValue(incoming.headers, 'content-type')?.startsWith('application/json') ?? false;
@@ -127,9 +131,12 @@ export function createRequestHandler(
         body: isJson ? {} : parseFormBody(rawBody),
         rawBody,
         headers: incoming.headers,
+        requestId,
+        idempotencyKey: idempotencyKey ?? null,
+        account: actingAccount(incoming.headers, key, context),
       };
-      if (!idempotencyKey) return { response: await run(match.handler, request, context, requestId), headers };
-      const reply = await runIdempotent(match, request, idempotencyKey, requestId);
+      if (!idempotencyKey) return { response: await run(match.handler, request), headers };
+      const reply = await runIdempotent(match, request, idempotencyKey);
       return { response: reply.response, headers: { ...headers, ...reply.headers } };
     } catch (error) {
       return { response: errorResponse(error, requestId), headers };

@@ -1,9 +1,5 @@
 import { createHash } from 'node:crypto';
-import {
-  idempotencyEndpointMismatch,
-  idempotencyInProgress,
-  idempotencyParametersMismatch,
-} from './errors';
+import { idempotencyEndpointMismatch, idempotencyInProgress, idempotencyParametersMismatch } from './errors';
 import type { StateStore, StoredResponse } from './state';
 
 // The provider forgets keys after 24 hours, after which a key may be reused for anything.

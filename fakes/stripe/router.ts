@@ -11,6 +11,10 @@ export interface FakeRequest {
   body: FormObject;
   rawBody: string;
   headers: IncomingHttpHeaders;
+  requestId: string;
+  idempotencyKey: string | null;
+  /** The connected account named by `Stripe-Account`, checked to exist; '' for the platform. */
+  account: string;
 }
 
 /** Returns the JSON body of a 200 response; failures are thrown as StripeFakeError. */

@@ -22,15 +22,51 @@ export interface IdempotencyRecord {
   response: StoredResponse;
 }
 
+/** What the provider keeps about a Checkout Session without returning it on the session. */
+export interface SessionExtras {
+  lineItems: StripeObject[];
+  /** `payment_intent_data` from the create call, applied when the PaymentIntent is made. */
+  paymentIntentData: { metadata: Record<string, string>; transferGroup: string | null; description: string | null };
+}
+
+export interface AccountLinkRecord {
+  account: string;
+  refreshUrl: string;
+  returnUrl: string;
+  /** Unix seconds, as on the account_link object. */
+  expiresAt: number;
+  used: boolean;
+}
+
+export type JobKind = 'expire_checkout_session' | 'settle_payout';
+
+export interface ScheduledJob {
+  kind: JobKind;
+  objectId: string;
+  /** The connected account the object lives on, or '' for the platform. */
+  account: string;
+  dueAtMs: number;
+}
+
+/** Objects by type (`event`, `checkout.session`, ...), then by id, in insertion order. */
+type Objects = Record<string, Record<string, StripeObject>>;
+
 interface StateFile {
   version: 1;
-  /** Objects by type (`event`, `checkout.session`, ...), then by id, in insertion order. */
-  objects: Record<string, Record<string, StripeObject>>;
+  /** The platform's objects. */
+  objects: Objects;
+  /** Objects that live on a connected account (its payouts, balance transactions, events), by account id. */
+  connected: Record<string, Objects>;
   idempotency: Record<string, IdempotencyRecord>;
+  checkoutSessions: Record<string, SessionExtras>;
+  /** Onboarding links by the token in their URL. */
+  accountLinks: Record<string, AccountLinkRecord>;
+  /** Timers that must survive a restart (session expiry, payout arrival), by job key. */
+  jobs: Record<string, ScheduledJob>;
 }
 
 function emptyState(): StateFile {
-  return { version: 1, objects: {}, idempotency: {} };
+  return { version: 1, objects: {}, connected: {}, idempotency: {}, checkoutSessions: {}, accountLinks: {}, jobs: {} };
 }
 
 function readStateFile(file: string): StateFile {
@@ -40,12 +76,14 @@ function readStateFile(file: string): StateFile {
     // Refuse rather than start empty: silently dropping a developer's orders would be worse.
     throw new Error(`${file} is not a payments fake state file (version 1); move it away to start afresh`);
   }
-  return parsed as StateFile;
+  // Files written before a section existed are still version 1: the missing sections start empty.
+  return { ...emptyState(), ...(parsed as Partial<StateFile>) };
 }
 
 /**
  * The fake's whole state, in memory and in one JSON file. Objects handed out are the stored ones:
- * change them in place, then `save()`.
+ * change them in place, then `save()`. `account` is '' for the platform, or the connected account
+ * (`Stripe-Account`) an object belongs to.
  */
 export class StateStore {
   private constructor(
@@ -58,23 +96,35 @@ export class StateStore {
     return new StateStore(file, readStateFile(file));
   }
 
-  insert<T extends StripeObject>(object: T): T {
-    const byId = (this.data.objects[object.object] ??= {});
+  insert<T extends StripeObject>(object: T, account = ''): T {
+    const byId = (this.objectsOf(account)[object.object] ??= {});
     byId[object.id] = object;
     return object;
   }
 
-  get<T extends StripeObject = StripeObject>(type: string, id: string): T | undefined {
-    return this.data.objects[type]?.[id] as T | undefined;
+  get<T extends StripeObject = StripeObject>(type: string, id: string, account = ''): T | undefined {
+    return this.objectsOf(account)[type]?.[id] as T | undefined;
   }
 
   /** Newest first, the order of the provider's list endpoints. */
-  list<T extends StripeObject = StripeObject>(type: string): T[] {
-    return Object.values(this.data.objects[type] ?? {}).reverse() as T[];
+  list<T extends StripeObject = StripeObject>(type: string, account = ''): T[] {
+    return Object.values(this.objectsOf(account)[type] ?? {}).reverse() as T[];
   }
 
   get idempotency(): Record<string, IdempotencyRecord> {
     return this.data.idempotency;
+  }
+
+  get checkoutSessions(): Record<string, SessionExtras> {
+    return this.data.checkoutSessions;
+  }
+
+  get accountLinks(): Record<string, AccountLinkRecord> {
+    return this.data.accountLinks;
+  }
+
+  get jobs(): Record<string, ScheduledJob> {
+    return this.data.jobs;
   }
 
   /**
@@ -85,5 +135,10 @@ export class StateStore {
     const temp = `${this.file}.tmp`;
     writeFileSync(temp, `${JSON.stringify(this.data, null, 2)}\n`);
     renameSync(temp, this.file);
+  }
+
+  private objectsOf(account: string): Objects {
+    if (account === '') return this.data.objects;
+    return (this.data.connected[account] ??= {});
   }
 }

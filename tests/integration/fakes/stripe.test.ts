@@ -78,7 +78,8 @@ describe('payments fake: API basics through the SDK', () => {
 
   test('retrieves the balance', async () => {
     const balance = await sdk().balance.retrieve();
-    expect(balance).toMatchObject({ object: 'balance', available: [], pending: [], livemode: false });
+    const zero = [{ amount: 0, currency: 'eur', source_types: { card: 0 } }];
+    expect(balance).toEqual({ object: 'balance', available: zero, pending: zero, livemode: false });
   });
 
   test('an unknown object is a StripeInvalidRequestError with code resource_missing', async () => {
@@ -146,9 +147,9 @@ describe('payments fake: events, webhooks and idempotency', () => {
       expect(event.id).toBe(emitted.id);
       expect(event.data.object).toEqual({ id: 'po_1', object: 'payout' });
     }
-    expect(() =>
-      sdk().webhooks.constructEvent(receiver.deliveries[0]!.body, receiver.deliveries[0]!.signature, 'whsec_other'),
-    ).toThrow(Stripe.errors.StripeSignatureVerificationError);
+    expect(() => sdk().webhooks.constructEvent(receiver.deliveries[0]!.body, receiver.deliveries[0]!.signature, 'whsec_other')).toThrow(
+      Stripe.errors.StripeSignatureVerificationError,
+    );
 
     // The fake marks the event delivered once it has read the 2xx answer.
     await waitFor(async () => (await sdk().events.retrieve(emitted.id)).pending_webhooks === 0);
