@@ -156,6 +156,33 @@ describe('checkout through the payment fake', () => {
     expect(pub.listing.status).toBe('live');
   });
 
+  test('refunds: the buyer asks, a moderator refunds part and then the rest; the provider is charged back each time', async () => {
+    const listingId = await liveListing(1, 'Refund mirror');
+    const buyer = await newBuyer(300);
+    await buyer.post('/api/cart/items', { listingId, quantity: 1 });
+    const { orderIds, sessionId } = await (await buyer.post('/api/checkout', {})).json();
+    await payWithCard(app, sessionId, '4242424242424242');
+    await until('paid', async () => (await orderStatus(orderIds[0])) === 'paid');
+    const asked = await buyer.post(`/api/orders/${orderIds[0]}/refund`, { reason: 'The coating shows a scratch.' });
+    expect((await asked.json()).order.status).toBe('refund_requested');
+    const seller = await as('seller2');
+    expect((await seller.post(`/api/orders/${orderIds[0]}/refund`, { reason: 'Trying to refund myself' })).status).toBe(403);
+    const mod = await as('moderator');
+    const tooMuch = await mod.post(`/api/orders/${orderIds[0]}/refund`, { amountCents: 100_001, reason: 'Too much' });
+    expect(tooMuch.status).toBe(400);
+    const part = await (await mod.post(`/api/orders/${orderIds[0]}/refund`, { amountCents: 30_000, reason: 'Partial refund for the scratch' })).json();
+    expect(part.order.status).toBe('paid');
+    expect(part.order.refundedCents).toBe(30_000);
+    const rest = await (await mod.post(`/api/orders/${orderIds[0]}/refund`, { reason: 'Returned after all' })).json();
+    expect(rest.order.status).toBe('refunded');
+    expect(rest.order.refundedCents).toBe(100_000);
+    const { default: StripeSdk } = await import('stripe');
+    const provider = new StripeSdk('sk_test_lightyard_fake', { host: '127.0.0.1', port: app.fakes.ports.stripe, protocol: 'http' });
+    const pi = (await provider.checkout.sessions.retrieve(sessionId)).payment_intent as string;
+    const refunds = await provider.refunds.list({ payment_intent: pi });
+    expect(refunds.data.map((r) => r.amount).sort((a, b) => a - b)).toEqual([30_000, 70_000]);
+  });
+
   test('ships-to and export control are checked before any stock is held', async () => {
     const seller = await as('seller3');
     const { id } = await (await seller.post('/api/listings', { ...mirror(1, 'UK only mirror'), shipsTo: ['UK'] })).json();
