@@ -183,6 +183,15 @@ describe('checkout through the payment fake', () => {
     expect(refunds.data.map((r) => r.amount).sort((a, b) => a - b)).toEqual([30_000, 70_000]);
   });
 
+  test('an unverified account cannot check out', async () => {
+    const c = new Client(app.origin);
+    await c.post('/api/auth/sign-up', { email: 'not.yet.verified@lab.example', password: 'long-enough-pw', name: 'Not Yet' });
+    await c.signIn('not.yet.verified@lab.example', 'long-enough-pw');
+    const r = await c.post('/api/checkout', {});
+    expect(r.status).toBe(403);
+    expect((await r.json()).error.code).toBe('email_unverified');
+  });
+
   test('ships-to and export control are checked before any stock is held', async () => {
     const seller = await as('seller3');
     const { id } = await (await seller.post('/api/listings', { ...mirror(1, 'UK only mirror'), shipsTo: ['UK'] })).json();
