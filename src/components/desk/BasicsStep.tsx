@@ -1,5 +1,13 @@
 import { useFormContext } from 'react-hook-form';
-import { CATEGORIES, CATEGORY_LABELS, CONDITION_LABELS, CONDITIONS, REGION_LABELS, REGIONS, type Category } from '../../lib/listings/constants';
+import {
+  CATEGORIES,
+  CATEGORY_LABELS,
+  CONDITION_LABELS,
+  CONDITIONS,
+  REGION_LABELS,
+  REGIONS,
+  type Category,
+} from '../../lib/listings/constants';
 import { CURRENCIES } from '../../lib/specs';
 import { Field } from '../forms/Field';
 import { SelectField, TextAreaField } from './FormBits';
@@ -41,7 +49,12 @@ export function BasicsStep({ labs, fixedCategory, chooseLab }: Props) {
           </p>
         </div>
       ) : (
-        <SelectField label="Category" error={errors.category?.message} hint="Decides which specs the next step asks for." {...register('category')}>
+        <SelectField
+          label="Category"
+          error={errors.category?.message}
+          hint="Decides which specs the next step asks for."
+          {...register('category')}
+        >
           <option value="">Choose…</option>
           {CATEGORIES.map((c) => (
             <option key={c} value={c}>
@@ -50,11 +63,17 @@ export function BasicsStep({ labs, fixedCategory, chooseLab }: Props) {
           ))}
         </SelectField>
       )}
-      <Field label="Title" maxLength={140} error={errors.title?.message} hint="What a buyer searches for, e.g. “Matched pair of 780 nm supermirrors, ROC 50 mm”." {...register('title')} />
+      <Field
+        label="Title"
+        maxLength={140}
+        error={errors.title?.message}
+        hint="What a buyer searches for, e.g. “Matched pair of 780 nm supermirrors, ROC 50 mm”."
+        {...register('title')}
+      />
       <TextAreaField
         label="Description (optional)"
         error={errors.description?.message}
-        hint="Markdown: **bold**, *italic*, lists, [links](https://…). HTML is not allowed: it shows as typed."
+        hint="Markdown: **bold**, *italic*, lists, [links](https://…). HTML is not allowed and is removed."
         {...register('description')}
       />
       <SelectField label="Condition" error={errors.condition?.message} {...register('condition')}>
@@ -66,7 +85,13 @@ export function BasicsStep({ labs, fixedCategory, chooseLab }: Props) {
         ))}
       </SelectField>
       <div className="grid gap-x-4 sm:grid-cols-[8rem_minmax(0,1fr)_9rem]">
-        <Field label="Quantity" inputMode="numeric" className="field-input num" error={errors.quantity?.message} {...register('quantity')} />
+        <Field
+          label="Quantity"
+          inputMode="numeric"
+          className="field-input num"
+          error={errors.quantity?.message}
+          {...register('quantity')}
+        />
         <Field
           label="Price per unit"
           inputMode="decimal"

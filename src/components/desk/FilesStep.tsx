@@ -1,8 +1,8 @@
-import { useId, useState, type ChangeEvent } from 'react';
+import { memo, useId, useState, type ChangeEvent } from 'react';
 import { MEASUREMENT_KINDS, type Category, type FileKind, type MeasurementKind } from '../../lib/listings/constants';
 import { ProgressBar } from './FormBits';
 import { MEASUREMENT_FORMAT_HINTS, MEASUREMENT_KIND_LABELS } from './labels';
-import { MeasurementPlot } from './MeasurementPlot';
+import ListingMeasurementPlot from '../listing/MeasurementPlot';
 import { formatBytes } from './upload';
 import type { UploadItem } from './use-uploads';
 
@@ -15,13 +15,28 @@ interface Props {
   locked: boolean;
 }
 
+/** The plot buyers see on the listing page; memoised so that other files' progress does not redraw it. */
+export const MeasurementPlot = memo(ListingMeasurementPlot);
+
 function defaultMeasurementKind(category: Category): MeasurementKind {
   if (category === 'cavity-mirror') return 'ringdown';
   if (category === 'photodiode' || category === 'balanced-detector' || category === 'single-photon-detector') return 'efficiency-curve';
   return 'spectrum';
 }
 
-function FilePicker({ label, accept, multiple, onFiles, hint }: { label: string; accept: string; multiple?: boolean; onFiles: (files: FileList) => void; hint: string }) {
+function FilePicker({
+  label,
+  accept,
+  multiple,
+  onFiles,
+  hint,
+}: {
+  label: string;
+  accept: string;
+  multiple?: boolean;
+  onFiles: (files: FileList) => void;
+  hint: string;
+}) {
   const id = useId();
   const pick = (e: ChangeEvent<HTMLInputElement>) => {
     if (e.target.files && e.target.files.length > 0) onFiles(e.target.files);
@@ -50,6 +65,7 @@ function FilePicker({ label, accept, multiple, onFiles, hint }: { label: string;
 }
 
 function StatusLine({ item }: { item: UploadItem }) {
+  if (item.state === 'queued') return <p className="text-xs text-ink-soft">Waiting for the files before it…</p>;
   if (item.state === 'uploading') return <ProgressBar share={item.progress} label={`Uploading ${item.filename}`} />;
   if (item.state === 'checking') {
     return (
@@ -80,7 +96,13 @@ function ItemRow({ item, onRemove, busy, locked }: { item: UploadItem; onRemove:
   return (
     <li className="rounded-md border border-rule bg-white p-2.5" data-testid="upload-item">
       <div className="flex items-start gap-3">
-        {thumb && <img src={`/api/files/${encodeURIComponent(item.fileId!)}?variant=w320`} alt={`Photo ${item.filename}`} className="h-16 w-20 shrink-0 rounded-sm border border-rule object-cover" />}
+        {thumb && (
+          <img
+            src={`/api/files/${encodeURIComponent(item.fileId!)}?variant=w320`}
+            alt={`Photo ${item.filename}`}
+            className="h-16 w-20 shrink-0 rounded-sm border border-rule object-cover"
+          />
+        )}
         <div className="min-w-0 flex-1">
           <p className="flex flex-wrap items-baseline gap-x-2 text-sm">
             <span className="min-w-0 break-all font-medium">{item.filename}</span>
@@ -98,12 +120,20 @@ function ItemRow({ item, onRemove, busy, locked }: { item: UploadItem; onRemove:
           )}
         </div>
         {!locked && (
-          <button type="button" className="btn btn-quiet shrink-0 px-2 py-0.5 text-sm" onClick={onRemove} disabled={busy} aria-label={`Remove ${item.filename}`}>
-            {item.state === 'uploading' ? 'Cancel' : 'Remove'}
+          <button
+            type="button"
+            className="btn btn-quiet shrink-0 px-2 py-0.5 text-sm"
+            onClick={onRemove}
+            disabled={busy}
+            aria-label={`Remove ${item.filename}`}
+          >
+            {item.state === 'queued' || item.state === 'uploading' ? 'Cancel' : 'Remove'}
           </button>
         )}
       </div>
-      {item.kind === 'measurement' && item.state === 'ready' && item.file?.data && <MeasurementPlot data={item.file.data} />}
+      {item.kind === 'measurement' && item.state === 'ready' && item.file?.data && (
+        <MeasurementPlot data={item.file.data} filename={item.filename} />
+      )}
     </li>
   );
 }
@@ -148,7 +178,14 @@ export function FilesStep({ category, items, add, discard, removing, locked }: P
       </Section>
       <Section title="Datasheet">
         {list('datasheet')}
-        {!locked && <FilePicker label="Add a datasheet (PDF)" accept="application/pdf,.pdf" onFiles={(f) => add('datasheet', f)} hint="One PDF up to 20 MB; a new one replaces the old once it is accepted." />}
+        {!locked && (
+          <FilePicker
+            label="Add a datasheet (PDF)"
+            accept="application/pdf,.pdf"
+            onFiles={(f) => add('datasheet', f)}
+            hint="One PDF up to 20 MB; a new one replaces the old once it is accepted."
+          />
+        )}
       </Section>
       <Section title="Measurements">
         {list('measurement')}
@@ -158,7 +195,12 @@ export function FilesStep({ category, items, add, discard, removing, locked }: P
               <label htmlFor={kindId} className="field-label">
                 Measurement kind
               </label>
-              <select id={kindId} className="field-input sm:max-w-sm" value={measurementKind} onChange={(e) => setMeasurementKind(e.target.value as MeasurementKind)}>
+              <select
+                id={kindId}
+                className="field-input sm:max-w-sm"
+                value={measurementKind}
+                onChange={(e) => setMeasurementKind(e.target.value as MeasurementKind)}
+              >
                 {MEASUREMENT_KINDS.map((k) => (
                   <option key={k} value={k}>
                     {MEASUREMENT_KIND_LABELS[k]}

@@ -10,7 +10,15 @@ import { QueryRoot } from '../forms/QueryRoot';
 import { BasicsStep } from './BasicsStep';
 import { FilesStep } from './FilesStep';
 import { LOCKED_STATUSES } from './labels';
-import { BASICS_FIELDS, emptyListingForm, formPathOfServerField, listingFormSchema, listingToForm, type ListingFormOutput, type ListingFormValues } from './listing-form';
+import {
+  BASICS_FIELDS,
+  emptyListingForm,
+  formPathOfServerField,
+  listingFormSchema,
+  listingToForm,
+  type ListingFormOutput,
+  type ListingFormValues,
+} from './listing-form';
 import { ListingPreview } from './ListingPreview';
 import { SpecFields } from './SpecFields';
 import type { DeskFile, DeskListing, LabOption } from './types';
@@ -47,7 +55,14 @@ interface Saved {
   reviewReason: string | null;
 }
 
-const savedOf = (l: DeskListing): Saved => ({ id: l.id, labId: l.labId, version: l.version, status: l.status, published: l.published !== null, reviewReason: l.reviewReason });
+const savedOf = (l: DeskListing): Saved => ({
+  id: l.id,
+  labId: l.labId,
+  version: l.version,
+  status: l.status,
+  published: l.published !== null,
+  reviewReason: l.reviewReason,
+});
 
 const stepOf = (path: string): Step => (path === 'specs' || path.startsWith('specs.') ? 2 : 1);
 
@@ -85,8 +100,8 @@ function StatusNotes({ saved }: { saved: Saved }) {
       )}
       {saved.published && !LOCKED_STATUSES.includes(saved.status) && (
         <div className="notice mb-4" data-testid="live-note">
-          This listing has an approved version that buyers see. Changes to the title, description, condition, price or specs go back to review, and the approved
-          version stays visible until a moderator approves the new one. Stock and shipping regions change at once.
+          This listing has an approved version that buyers see. Changes to the title, description, condition, price or specs go back to
+          review, and the approved version stays visible until a moderator approves the new one. Stock and shipping regions change at once.
         </div>
       )}
     </>
@@ -106,7 +121,10 @@ function StepNav({ step, onGo, disabled }: { step: Step; onGo: (s: Step) => void
               aria-current={s.n === step ? 'step' : undefined}
               className={`w-full border-b-2 px-1 py-1.5 text-left ${s.n === step ? 'border-accent font-semibold text-ink' : 'border-rule text-ink-soft hover:border-rule-strong'}`}
             >
-              <span className="num mr-1 text-ink-faint">{s.n}</span>
+              <span className="num mr-1 text-ink-faint">
+                <span className="sr-only">Step </span>
+                {s.n}
+              </span>{' '}
               {s.title}
             </button>
           </li>
@@ -179,6 +197,18 @@ function Editor({ listing, files, labs }: Props) {
     form.setValue('specs', category === '' ? {} : (specsByCategory.current.get(category) ?? toFormValues(category, {})));
   }, [category, form]);
 
+  // A field showing an error is checked again as it changes, so the message goes while the seller fixes it
+  // (not on blur, where the layout shift would swallow the click on "Next").
+  useEffect(() => {
+    const sub = form.watch((_values, { name, type }) => {
+      if (type !== 'change' || !name) return;
+      const parent = name.split('.').slice(0, -1).join('.');
+      const withError = [name, parent].find((p) => p !== '' && form.getFieldState(p as Path<ListingFormValues>).error);
+      if (withError) void form.trigger(withError as Path<ListingFormValues>);
+    });
+    return () => sub.unsubscribe();
+  }, [form]);
+
   // Leaving with unsaved typing asks first; a deliberate navigation after saving does not.
   const leaving = useRef(false);
   useEffect(() => {
@@ -213,9 +243,19 @@ function Editor({ listing, files, labs }: Props) {
         const res = await api<{ id: string; listing: { version: number; status: ListingStatus } }>('/api/listings', {
           body: needsLab ? { ...out.body, labId: out.labId } : out.body,
         });
-        return { id: res.id, labId: out.labId ?? labs[0]?.id ?? '', version: res.listing.version, status: res.listing.status, published: false, reviewReason: null };
+        return {
+          id: res.id,
+          labId: out.labId ?? labs[0]?.id ?? '',
+          version: res.listing.version,
+          status: res.listing.status,
+          published: false,
+          reviewReason: null,
+        };
       }
-      const res = await api<{ listing: DeskListing }>(`/api/listings/${encodeURIComponent(current.id)}`, { method: 'PATCH', body: { ...out.body, version: current.version } });
+      const res = await api<{ listing: DeskListing }>(`/api/listings/${encodeURIComponent(current.id)}`, {
+        method: 'PATCH',
+        body: { ...out.body, version: current.version },
+      });
       return savedOf(res.listing);
     },
   });
@@ -287,6 +327,10 @@ function Editor({ listing, files, labs }: Props) {
     return Promise.resolve(true);
   };
 
+  const formRef = useRef<HTMLFormElement>(null);
+  const focusFirstInvalid = () =>
+    requestAnimationFrame(() => formRef.current?.querySelector<HTMLElement>('[aria-invalid="true"]')?.focus());
+
   const goTo = async (target: Step) => {
     if (target <= step) {
       setStep(target);
@@ -296,6 +340,7 @@ function Editor({ listing, files, labs }: Props) {
     for (let s = step; s < target; s++) {
       if (!(await validStep(s as Step))) {
         setStep(s as Step);
+        focusFirstInvalid();
         return;
       }
     }
@@ -339,8 +384,15 @@ function Editor({ listing, files, labs }: Props) {
       {saved && <StatusNotes saved={saved} />}
       {locked && (
         <div className="notice notice-bad mb-4">
-          <p className="mb-2">A {saved && STATUS_LABELS[saved.status].toLowerCase()} listing cannot be edited. Duplicate it to list the part again.</p>
-          <button type="button" className="btn btn-quiet" disabled={duplicateMutation.isPending} onClick={() => saved && duplicateMutation.mutate(saved.id)}>
+          <p className="mb-2">
+            A {saved && STATUS_LABELS[saved.status].toLowerCase()} listing cannot be edited. Duplicate it to list the part again.
+          </p>
+          <button
+            type="button"
+            className="btn btn-quiet"
+            disabled={duplicateMutation.isPending}
+            onClick={() => saved && duplicateMutation.mutate(saved.id)}
+          >
             Duplicate as a new draft
           </button>
           {duplicateMutation.error && <p className="field-error">{duplicateMutation.error.message}</p>}
@@ -348,6 +400,7 @@ function Editor({ listing, files, labs }: Props) {
       )}
       <StepNav step={step} onGo={(s) => void goTo(s)} disabled={busy} />
       <form
+        ref={formRef}
         noValidate
         aria-labelledby="step-heading"
         onSubmit={(e) => {
@@ -362,17 +415,34 @@ function Editor({ listing, files, labs }: Props) {
         {rootError && <FormMessage kind="bad">{rootError}</FormMessage>}
         <ErrorSummary issues={otherStepIssues} category={category} onGo={goToField} />
 
-        {step === 1 && <BasicsStep labs={labs} fixedCategory={listing ? listing.category : saved ? (category as Category) : null} chooseLab={needsLab && saved === null} />}
+        {step === 1 && (
+          <BasicsStep
+            labs={labs}
+            fixedCategory={listing ? listing.category : saved ? (category as Category) : null}
+            chooseLab={needsLab && saved === null}
+          />
+        )}
         {step === 2 &&
           (category === '' ? (
             <p className="text-sm">Choose a category in step 1 first.</p>
           ) : (
             <>
-              <p className="mb-4 text-sm text-ink-soft">Numbers in the unit you have them in; the ± box takes the tolerance in the same unit. Buyers' fit reports use these values.</p>
+              <p className="mb-4 text-sm text-ink-soft">
+                Numbers in the unit you have them in; the ± box takes the tolerance in the same unit. Buyers' fit reports use these values.
+              </p>
               <SpecFields category={category} />
             </>
           ))}
-        {step === 3 && category !== '' && <FilesStep category={category} items={uploads.items} add={uploads.add} discard={uploads.discard} removing={uploads.removing} locked={locked} />}
+        {step === 3 && category !== '' && (
+          <FilesStep
+            category={category}
+            items={uploads.items}
+            add={uploads.add}
+            discard={uploads.discard}
+            removing={uploads.removing}
+            locked={locked}
+          />
+        )}
         {step === 4 &&
           (preview?.success ? (
             <ListingPreview body={preview.data.body} labName={labName} files={uploads.items} />

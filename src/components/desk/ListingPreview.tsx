@@ -1,19 +1,12 @@
 import { useMemo } from 'react';
 import { CATEGORY_LABELS, CONDITION_LABELS, REGION_LABELS } from '../../lib/listings/constants';
 import { specRows, type ListingInput } from '../../lib/specs';
-import { MEASUREMENT_KIND_LABELS } from './labels';
+import { formatMoney } from '../../lib/format';
+import { MeasurementPlot } from './FilesStep';
 import { renderDescription } from './markdown';
-import { formatEstimate } from './MeasurementPlot';
-import { formatMoney } from './money';
 import type { UploadItem } from './use-uploads';
 
-function measuredLine(item: UploadItem): string | null {
-  const d = item.file?.data;
-  if (d?.kind !== 'ringdown') return null;
-  const parts = [`τ = ${formatEstimate(d.fit.tauS, 2 * d.fit.tauUncertaintyS, 's')}`];
-  if (d.figures) parts.push(`finesse ${formatEstimate(d.figures.finesse.value, 2 * d.figures.finesse.uncertainty, '')}`);
-  return parts.join(', ');
-}
+const ROW_HEAD = 'w-2/5 border-rule text-sm font-normal normal-case tracking-normal text-ink-soft';
 
 /** The listing as a buyer will read it: photos, price, stock, ships-to, the spec table, the description. */
 export function ListingPreview({ body, labName, files }: { body: ListingInput; labName: string; files: UploadItem[] }) {
@@ -28,7 +21,12 @@ export function ListingPreview({ body, labName, files }: { body: ListingInput; l
       {photos.length > 0 && (
         <div className="mb-4 flex gap-2 overflow-x-auto">
           {photos.map((p) => (
-            <img key={p.key} src={`/api/files/${encodeURIComponent(p.fileId!)}?variant=w320`} alt={`Photo ${p.filename}`} className="h-28 w-auto shrink-0 rounded-sm border border-rule object-cover" />
+            <img
+              key={p.key}
+              src={`/api/files/${encodeURIComponent(p.fileId!)}?variant=w320`}
+              alt={`Photo ${p.filename}`}
+              className="h-28 w-auto shrink-0 rounded-sm border border-rule object-cover"
+            />
           ))}
         </div>
       )}
@@ -53,31 +51,20 @@ export function ListingPreview({ body, labName, files }: { body: ListingInput; l
           <tbody>
             {rows.map((r) => (
               <tr key={r.label}>
-                <th scope="row" className="w-2/5 normal-case tracking-normal">
+                <th scope="row" className={ROW_HEAD}>
                   {r.label}
                 </th>
                 <td className="num">{r.value}</td>
               </tr>
             ))}
-            {measurements.map((m) => {
-              const line = measuredLine(m);
-              return line ? (
-                <tr key={m.key}>
-                  <th scope="row" className="normal-case tracking-normal">
-                    Measured (ring-down)
-                  </th>
-                  <td className="num">{line}</td>
-                </tr>
-              ) : null;
-            })}
           </tbody>
         </table>
       </div>
       {measurements.length > 0 && (
-        <p className="mb-4 text-sm">
-          <span className="text-ink-soft">Measurement files: </span>
-          {measurements.map((m) => `${m.filename} (${m.measurementKind ? MEASUREMENT_KIND_LABELS[m.measurementKind].toLowerCase() : 'measurement'})`).join(', ')}
-        </p>
+        <section className="mb-4" aria-label="Measurements">
+          <h4 className="mb-1 text-sm font-semibold">Measurements</h4>
+          {measurements.map((m) => m.file?.data && <MeasurementPlot key={m.key} data={m.file.data} filename={m.filename} />)}
+        </section>
       )}
       {datasheet && (
         <p className="mb-4 text-sm">
@@ -85,7 +72,10 @@ export function ListingPreview({ body, labName, files }: { body: ListingInput; l
         </p>
       )}
       {body.description.trim() !== '' && (
-        <div className="max-w-prose text-sm leading-relaxed [&_a]:underline [&_h1]:text-lg [&_h1]:font-semibold [&_h2]:font-semibold [&_li]:ml-5 [&_ol]:list-decimal [&_p]:mb-2 [&_ul]:list-disc" dangerouslySetInnerHTML={{ __html: description }} />
+        <div
+          className="prose-notes max-w-prose text-[0.95rem] [&_h3]:font-semibold [&_h4]:font-semibold"
+          dangerouslySetInnerHTML={{ __html: description }}
+        />
       )}
     </article>
   );

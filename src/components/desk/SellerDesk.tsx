@@ -10,14 +10,13 @@ import {
   type FilterFn,
   type SortingState,
 } from '@tanstack/react-table';
-import { useEffect, useId, useMemo, useRef, useState, type FormEvent } from 'react';
+import { useEffect, useId, useMemo, useRef, useState, type SubmitEvent } from 'react';
 import { api, ApiError } from '../../lib/api-client';
 import { CATEGORY_LABELS, CONDITION_LABELS, LISTING_STATUSES, STATUS_LABELS, type ListingStatus } from '../../lib/listings/constants';
-import { formatDate } from '../../lib/format';
+import { formatDate, formatMoney } from '../../lib/format';
 import { FormMessage } from '../forms/Field';
 import { QueryRoot } from '../forms/QueryRoot';
 import { LOCKED_STATUSES, STATUS_ORDER } from './labels';
-import { formatMoney } from './money';
 import type { DeskListing, LabOption } from './types';
 
 const QUERY_KEY = ['desk-listings'] as const;
@@ -63,7 +62,9 @@ function StatusCell({ listing }: { listing: DeskListing }) {
       <span className="font-medium" data-testid="status">
         {STATUS_LABELS[listing.status]}
       </span>
-      {listing.status === 'in-review' && listing.published && <span className="block text-xs text-ink-faint">approved version still live</span>}
+      {listing.status === 'in-review' && listing.published && (
+        <span className="block text-xs text-ink-faint">approved version still live</span>
+      )}
       {showReason && (
         <p className="mt-0.5 max-w-64 text-xs text-ink-soft">
           <span className="sr-only">Moderator's reason: </span>“{listing.reviewReason}”
@@ -80,7 +81,8 @@ function StockCell({ listing }: { listing: DeskListing }) {
   const [text, setText] = useState(String(listing.quantity));
   useEffect(() => setText(String(listing.quantity)), [listing.quantity]);
   const m = useMutation<{ listing: DeskListing }, ApiError, number>({
-    mutationFn: (quantity) => api(`/api/listings/${encodeURIComponent(listing.id)}`, { method: 'PATCH', body: { quantity, version: listing.version } }),
+    mutationFn: (quantity) =>
+      api(`/api/listings/${encodeURIComponent(listing.id)}`, { method: 'PATCH', body: { quantity, version: listing.version } }),
     onSuccess: (res) => replace(res.listing),
     onError: (err) => {
       if (err.status === 409) void qc.invalidateQueries({ queryKey: QUERY_KEY });
@@ -90,12 +92,12 @@ function StockCell({ listing }: { listing: DeskListing }) {
   const wanted = Number(text);
   const valid = text.trim() !== '' && Number.isInteger(wanted) && wanted >= 0 && wanted <= 10_000;
   const changed = valid && wanted !== listing.quantity;
-  const onSubmit = (e: FormEvent) => {
+  const onSubmit = (e: SubmitEvent<HTMLFormElement>) => {
     e.preventDefault();
     if (changed) m.mutate(wanted);
   };
   return (
-    <form onSubmit={onSubmit} className="flex min-w-36 flex-col gap-1" aria-label={`Stock of ${listing.title}`}>
+    <form onSubmit={onSubmit} className="flex min-w-36 flex-col gap-1">
       <div className="flex items-center gap-1">
         <label htmlFor={id} className="sr-only">
           Stock of {listing.title}
@@ -140,8 +142,13 @@ function ActionsCell({ listing, announce }: { listing: DeskListing; announce: An
   const replace = useReplaceListing();
   const [confirming, setConfirming] = useState(false);
   const confirmButton = useRef<HTMLButtonElement>(null);
+  const archiveButton = useRef<HTMLButtonElement>(null);
+  const asked = useRef(false);
+  // Focus follows the question: onto "Yes, archive" when asked, back onto "Archive" when kept.
   useEffect(() => {
     if (confirming) confirmButton.current?.focus();
+    else if (asked.current) archiveButton.current?.focus();
+    asked.current = confirming;
   }, [confirming]);
   const duplicate = useMutation<{ id: string }, ApiError>({
     mutationFn: () => api(`/api/listings/${encodeURIComponent(listing.id)}/duplicate`, { method: 'POST' }),
@@ -167,10 +174,23 @@ function ActionsCell({ listing, announce }: { listing: DeskListing; announce: An
   });
   if (confirming) {
     return (
-      <div className="flex min-w-44 flex-col gap-1" role="group" aria-label={`Archive ${listing.title}?`}>
+      <div
+        className="flex min-w-44 flex-col gap-1"
+        role="group"
+        aria-label={`Archive ${listing.title}?`}
+        onKeyDown={(e) => {
+          if (e.key === 'Escape') setConfirming(false);
+        }}
+      >
         <span className="text-xs">Archive it? Buyers will no longer see it.</span>
         <span className="flex gap-1">
-          <button ref={confirmButton} type="button" className="btn btn-quiet px-2 py-0.5 text-sm text-bad" onClick={() => archive.mutate()} disabled={archive.isPending}>
+          <button
+            ref={confirmButton}
+            type="button"
+            className="btn btn-quiet px-2 py-0.5 text-sm text-bad"
+            onClick={() => archive.mutate()}
+            disabled={archive.isPending}
+          >
             Yes, archive
           </button>
           <button type="button" className="btn btn-quiet px-2 py-0.5 text-sm" onClick={() => setConfirming(false)}>
@@ -182,14 +202,30 @@ function ActionsCell({ listing, announce }: { listing: DeskListing; announce: An
   }
   return (
     <div className="flex flex-wrap gap-1">
-      <a className="btn btn-quiet px-2 py-0.5 text-sm" href={`/desk/listings/${encodeURIComponent(listing.id)}`} aria-label={`Edit ${listing.title}`}>
+      <a
+        className="btn btn-quiet px-2 py-0.5 text-sm"
+        href={`/desk/listings/${encodeURIComponent(listing.id)}`}
+        aria-label={`Edit ${listing.title}`}
+      >
         {LOCKED_STATUSES.includes(listing.status) ? 'View' : 'Edit'}
       </a>
-      <button type="button" className="btn btn-quiet px-2 py-0.5 text-sm" onClick={() => duplicate.mutate()} disabled={duplicate.isPending} aria-label={`Duplicate ${listing.title}`}>
+      <button
+        type="button"
+        className="btn btn-quiet px-2 py-0.5 text-sm"
+        onClick={() => duplicate.mutate()}
+        disabled={duplicate.isPending}
+        aria-label={`Duplicate ${listing.title}`}
+      >
         Duplicate
       </button>
       {listing.status !== 'archived' && (
-        <button type="button" className="btn btn-quiet px-2 py-0.5 text-sm" onClick={() => setConfirming(true)} aria-label={`Archive ${listing.title}`}>
+        <button
+          ref={archiveButton}
+          type="button"
+          className="btn btn-quiet px-2 py-0.5 text-sm"
+          onClick={() => setConfirming(true)}
+          aria-label={`Archive ${listing.title}`}
+        >
           Archive
         </button>
       )}
@@ -198,6 +234,11 @@ function ActionsCell({ listing, announce }: { listing: DeskListing; announce: An
 }
 
 const col = createColumnHelper<DeskListing>();
+/** Titles as people read them: "780 nm" before "1064 nm", case ignored. */
+const titleOrder = new Intl.Collator(undefined, { numeric: true, sensitivity: 'base' });
+
+const STACKED_CELL =
+  'max-sm:flex max-sm:items-baseline max-sm:gap-3 max-sm:border-0 max-sm:px-0 max-sm:py-1 max-sm:before:w-16 max-sm:before:shrink-0 max-sm:before:text-xs max-sm:before:text-ink-soft max-sm:before:content-[attr(data-label)]';
 
 function ariaSort(s: false | 'asc' | 'desc') {
   return s === 'asc' ? 'ascending' : s === 'desc' ? 'descending' : undefined;
@@ -221,7 +262,7 @@ function Desk({ initial, labs }: Props) {
     () => [
       col.accessor('title', {
         header: 'Listing',
-        sortingFn: 'alphanumeric',
+        sortingFn: (a, b) => titleOrder.compare(a.original.title, b.original.title),
         cell: (c) => {
           const l = c.row.original;
           return (
@@ -248,7 +289,10 @@ function Desk({ initial, labs }: Props) {
         cell: (c) => <span className="num whitespace-nowrap">{formatMoney(c.getValue(), c.row.original.currency)}</span>,
       }),
       col.accessor('quantity', { header: 'Stock', cell: (c) => <StockCell listing={c.row.original} /> }),
-      col.accessor('updatedAt', { header: 'Updated', cell: (c) => <span className="num whitespace-nowrap">{formatDate(c.getValue())}</span> }),
+      col.accessor('updatedAt', {
+        header: 'Updated',
+        cell: (c) => <span className="num whitespace-nowrap">{formatDate(c.getValue())}</span>,
+      }),
       col.display({ id: 'actions', header: 'Actions', cell: (c) => <ActionsCell listing={c.row.original} announce={announce} /> }),
     ],
     [labs.length, labName],
@@ -282,7 +326,14 @@ function Desk({ initial, labs }: Props) {
           <label htmlFor="desk-search" className="field-label">
             Search your listings
           </label>
-          <input id="desk-search" type="search" className="field-input" value={search} onChange={(e) => setSearch(e.target.value)} placeholder="Title, category or status" />
+          <input
+            id="desk-search"
+            type="search"
+            className="field-input"
+            value={search}
+            onChange={(e) => setSearch(e.target.value)}
+            placeholder="Title, category or status"
+          />
         </div>
         <div className="basis-48">
           <label htmlFor="desk-status" className="field-label">
@@ -304,17 +355,33 @@ function Desk({ initial, labs }: Props) {
       <p className="mb-2 text-sm text-ink-soft" role="status">
         <span className="num">{rows.length}</span> of <span className="num">{total}</span> listings shown
       </p>
-      <div className="table-scroll rounded-md border border-rule bg-white">
-        <table className="data-table" aria-label="Your lab's listings">
-          <thead>
+      {/* Below the sm breakpoint each row stacks as a card with its column names beside the values; the
+          explicit roles keep the table's semantics where the display change would drop them. */}
+      <div className="table-scroll rounded-md border border-rule bg-white max-sm:px-3">
+        <table className="data-table max-sm:block" role="table" aria-label="Your lab's listings">
+          <thead className="max-sm:block" role="rowgroup">
             {table.getHeaderGroups().map((hg) => (
-              <tr key={hg.id}>
+              <tr
+                key={hg.id}
+                role="row"
+                className="max-sm:flex max-sm:flex-wrap max-sm:items-baseline max-sm:gap-x-3 max-sm:border-b max-sm:border-rule-strong max-sm:py-1.5"
+              >
+                <th className="hidden text-ink-soft max-sm:block max-sm:border-0 max-sm:p-0" aria-hidden="true">
+                  Sort:
+                </th>
                 {hg.headers.map((h) => (
-                  <th key={h.id} aria-sort={ariaSort(h.column.getIsSorted())} className="whitespace-nowrap">
+                  <th
+                    key={h.id}
+                    role="columnheader"
+                    aria-sort={ariaSort(h.column.getIsSorted())}
+                    className={`whitespace-nowrap max-sm:border-0 max-sm:p-0 ${h.column.getCanSort() ? '' : 'max-sm:hidden'}`}
+                  >
                     {h.column.getCanSort() ? (
                       <button type="button" onClick={h.column.getToggleSortingHandler()} className="uppercase tracking-[0.04em]">
                         {flexRender(h.column.columnDef.header, h.getContext())}
-                        <span aria-hidden="true">{h.column.getIsSorted() === 'asc' ? ' ↑' : h.column.getIsSorted() === 'desc' ? ' ↓' : ' ↕'}</span>
+                        <span aria-hidden="true">
+                          {h.column.getIsSorted() === 'asc' ? ' ↑' : h.column.getIsSorted() === 'desc' ? ' ↓' : ' ↕'}
+                        </span>
                       </button>
                     ) : (
                       flexRender(h.column.columnDef.header, h.getContext())
@@ -324,10 +391,10 @@ function Desk({ initial, labs }: Props) {
               </tr>
             ))}
           </thead>
-          <tbody>
+          <tbody className="max-sm:block" role="rowgroup">
             {rows.length === 0 && (
-              <tr>
-                <td colSpan={columns.length} className="py-6 text-center text-ink-soft">
+              <tr role="row" className="max-sm:block">
+                <td colSpan={columns.length} role="cell" className="py-6 text-center text-ink-soft max-sm:block">
                   {total === 0 ? (
                     <>
                       No listings yet. <a href="/desk/listings/new">List your first part</a>.
@@ -339,9 +406,21 @@ function Desk({ initial, labs }: Props) {
               </tr>
             )}
             {rows.map((row) => (
-              <tr key={row.id} data-listing={row.original.title}>
+              <tr
+                key={row.id}
+                role="row"
+                data-listing={row.original.title}
+                className="max-sm:block max-sm:border-b max-sm:border-rule max-sm:py-2 max-sm:last:border-b-0"
+              >
                 {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id}>{flexRender(cell.column.columnDef.cell, cell.getContext())}</td>
+                  <td
+                    key={cell.id}
+                    role="cell"
+                    data-label={String(cell.column.columnDef.header)}
+                    className={cell.column.id === 'title' ? 'max-sm:block max-sm:border-0 max-sm:px-0 max-sm:py-1' : STACKED_CELL}
+                  >
+                    {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                  </td>
                 ))}
               </tr>
             ))}

@@ -6,7 +6,7 @@ import type { ListingFormValues } from './listing-form';
 
 type Name = Path<ListingFormValues>;
 
-export function errorAt(errors: FieldErrors<ListingFormValues>, path: string): string | undefined {
+function errorAt(errors: FieldErrors<ListingFormValues>, path: string): string | undefined {
   const e = get(errors, path) as { message?: unknown } | undefined;
   return typeof e?.message === 'string' ? e.message : undefined;
 }
@@ -16,10 +16,16 @@ function UnitPicker({ field, name, label }: { field: FieldDef; name: string; lab
   const units = field.units ?? [];
   if (units.length === 0) return null;
   if (units.length === 1) {
-    return <span className="flex items-center rounded-r-sm border border-l-0 border-rule-strong bg-paper px-2 text-sm">{units[0]!.label}</span>;
+    return (
+      <span className="flex items-center rounded-r-sm border border-l-0 border-rule-strong bg-paper px-2 text-sm">{units[0]!.label}</span>
+    );
   }
   return (
-    <select aria-label={`${label} unit`} className="rounded-r-sm border border-l-0 border-rule-strong bg-paper px-1.5 text-sm" {...register(`${name}.unit` as Name)}>
+    <select
+      aria-label={`${label} unit`}
+      className="rounded-r-sm border border-l-0 border-rule-strong bg-paper px-1.5 text-sm"
+      {...register(`${name}.unit` as Name)}
+    >
       {units.map((u) => (
         <option key={u.key} value={u.key}>
           {u.label}
@@ -181,7 +187,11 @@ function HazardSuggestion() {
         Suggested: <strong>{usable ? `Class ${s.hazardClass}` : 'needs the IEC 60825-1 tables'}</strong>
         {s.atMostClass && ` (at most Class ${s.atMostClass})`}.{' '}
         {usable && (
-          <button type="button" className="text-accent underline" onClick={() => setValue('specs.hazardClass' as Name, s.hazardClass as never, { shouldDirty: true, shouldValidate: true })}>
+          <button
+            type="button"
+            className="text-accent underline"
+            onClick={() => setValue('specs.hazardClass' as Name, s.hazardClass as never, { shouldDirty: true, shouldValidate: true })}
+          >
             Use Class {s.hazardClass}
           </button>
         )}
@@ -194,7 +204,7 @@ function HazardSuggestion() {
 function BooleanSpecField({ field }: { field: FieldDef }) {
   const { register } = useFormContext<ListingFormValues>();
   return (
-    <div className="mb-4 flex items-center gap-2 self-end">
+    <div className="mb-4 flex items-center gap-2 sm:pt-7">
       <input id={`spec-${field.path}`} type="checkbox" {...register(`specs.${field.path}` as Name)} />
       <label htmlFor={`spec-${field.path}`} className="text-sm font-medium">
         {field.label}
@@ -209,7 +219,7 @@ function AlternativeField({ field }: { field: FieldDef }) {
   const value = useWatch({ control, name: `specs.${field.path}.value` as Name });
   const open = (typeof value === 'string' && value.trim() !== '') || errorAt(formState.errors, `specs.${field.path}`) !== undefined;
   return (
-    <details className="mb-4 sm:col-span-2" open={open}>
+    <details className="mb-4" open={open}>
       <summary className="cursor-pointer text-sm font-medium text-accent">{field.label}</summary>
       <div className="mt-2 sm:max-w-[calc(50%-0.5rem)]">
         <QuantityField field={field} labelHidden />
@@ -238,7 +248,10 @@ export function SpecFields({ category }: { category: Category }) {
   return (
     <div className="grid gap-x-4 sm:grid-cols-2">
       {fields.map((f) => (
-        <SpecField key={f.path} field={f} category={category} />
+        // The two ends of a range share a row; a folded alternative takes a row of its own.
+        <div key={f.path} className={f.alternative ? 'sm:col-span-2' : f.rangeTo ? 'sm:col-start-1' : undefined}>
+          <SpecField field={f} category={category} />
+        </div>
       ))}
     </div>
   );

@@ -25,12 +25,22 @@ export interface ListingFormOutput {
   labId: string | undefined;
 }
 
-export const BASICS_FIELDS = ['labId', 'category', 'title', 'description', 'condition', 'quantity', 'price', 'currency', 'shipsTo'] as const;
+export const BASICS_FIELDS = [
+  'labId',
+  'category',
+  'title',
+  'description',
+  'condition',
+  'quantity',
+  'price',
+  'currency',
+  'shipsTo',
+] as const;
 
 const isCategory = (c: string): c is Category => (CATEGORIES as readonly string[]).includes(c);
 
 /** Where an issue of the API body belongs in the form: priceCents is typed as price, a spec's value or tol on the spec's field. */
-export function formPathOf(apiPath: readonly (string | number)[]): string | null {
+function formPathOf(apiPath: readonly (string | number)[]): string | null {
   const [top, next] = apiPath;
   if (top === 'priceCents') return 'price';
   if (top === 'specs') return typeof next === 'string' ? `specs.${next}` : null;
@@ -65,6 +75,7 @@ export function listingFormSchema(opts: { needsLab: boolean }) {
         ctx.addIssue({ code: z.ZodIssueCode.custom, path: path.split('.'), message });
       };
       if (opts.needsLab && v.labId === '') fail('labId', 'Choose the lab that lists this part.');
+      if (v.condition === '') fail('condition', 'Choose the condition the part is in.');
       if (!isCategory(v.category)) {
         fail('category', 'Choose a category.');
         return z.NEVER;
@@ -100,7 +111,18 @@ export function listingFormSchema(opts: { needsLab: boolean }) {
 
 /** A fresh form: the lab preselected when there is one; specs follow the category once chosen. */
 export function emptyListingForm(labId: string): ListingFormValues {
-  return { labId, category: '', title: '', description: '', condition: '', quantity: '1', price: '', currency: 'EUR', shipsTo: [], specs: {} };
+  return {
+    labId,
+    category: '',
+    title: '',
+    description: '',
+    condition: '',
+    quantity: '1',
+    price: '',
+    currency: 'EUR',
+    shipsTo: [],
+    specs: {},
+  };
 }
 
 export function listingToForm(l: DeskListing): ListingFormValues {

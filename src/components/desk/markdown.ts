@@ -1,5 +1,6 @@
-// The description as the preview shows it: Markdown without HTML. Raw HTML is shown as typed
-// (escaped), images as their alt text, and only http(s) and mailto links become links.
+// The description as the preview shows it, matching what the listing page renders from Markdown:
+// raw HTML and images are dropped (their text stays), only http(s) and mailto links stay links, and
+// headings step down two levels under the listing's own.
 import { Marked } from 'marked';
 
 const ESCAPES: Record<string, string> = { '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' };
@@ -9,17 +10,22 @@ const SAFE_LINK = /^(https?:|mailto:)/i;
 
 const markdown = new Marked({
   gfm: true,
+  breaks: true,
   async: false,
   renderer: {
-    html({ text }) {
-      return escapeHtml(text);
+    html() {
+      return '';
     },
     image({ text }) {
       return escapeHtml(text);
     },
+    heading({ tokens, depth }) {
+      const inner = this.parser.parseInline(tokens);
+      return depth <= 2 ? `<h${depth + 2}>${inner}</h${depth + 2}>` : `<p>${inner}</p>`;
+    },
     link({ href, tokens }) {
       const inner = this.parser.parseInline(tokens);
-      return SAFE_LINK.test(href) ? `<a href="${escapeHtml(href)}" rel="nofollow noopener noreferrer">${inner}</a>` : inner;
+      return SAFE_LINK.test(href) ? `<a href="${escapeHtml(href)}" rel="nofollow noopener noreferrer" target="_blank">${inner}</a>` : inner;
     },
   },
 });

@@ -1,6 +1,4 @@
 // Prices: typed in major units (1250.50 EUR), stored as integer minor units with an ISO 4217 code.
-import { THIN } from '../../lib/units';
-
 /** Digits of the currency's minor unit (ISO 4217: JPY and KRW have none), from the runtime's own table. */
 export function minorDigits(currency: string): number {
   try {
@@ -10,7 +8,7 @@ export function minorDigits(currency: string): number {
   }
 }
 
-export type ParsedPrice = { ok: true; minor: number } | { ok: false; message: string };
+type ParsedPrice = { ok: true; minor: number } | { ok: false; message: string };
 
 /**
  * "1250", "1 250.50", "1,250.50", "1250,50" → minor units. A lone comma followed by exactly three
@@ -36,7 +34,10 @@ export function parseMajorUnits(text: string, currency: string): ParsedPrice {
   if (fraction.replace(/0+$/, '').length > digits) {
     return {
       ok: false,
-      message: digits === 0 ? `${currency} has no minor unit: give a whole number.` : `${currency} has ${digits} decimal places: round to ${(10 ** -digits).toFixed(digits)}.`,
+      message:
+        digits === 0
+          ? `${currency} has no minor unit: give a whole number.`
+          : `${currency} has ${digits} decimal places: round to ${(10 ** -digits).toFixed(digits)}.`,
     };
   }
   return { ok: true, minor: Math.round(Number(normalised) * 10 ** digits) };
@@ -46,11 +47,4 @@ export function parseMajorUnits(text: string, currency: string): ParsedPrice {
 export function majorUnitsText(minor: number, currency: string): string {
   const digits = minorDigits(currency);
   return (minor / 10 ** digits).toFixed(digits);
-}
-
-/** 125050 EUR → "1 250.50 EUR", digit groups and the code set off by thin spaces. */
-export function formatMoney(minor: number, currency: string): string {
-  const [int, frac] = majorUnitsText(minor, currency).split('.');
-  const grouped = (int ?? '0').replace(/\B(?=(\d{3})+(?!\d))/g, THIN);
-  return `${grouped}${frac ? `.${frac}` : ''}${THIN}${currency}`;
 }

@@ -5,7 +5,7 @@ import type { FileKind, MeasurementKind } from '../../lib/listings/constants';
 import type { DeskFile } from './types';
 import { contentTypeOf, putWithProgress, UploadAborted, type PutHandle } from './upload';
 
-export type UploadState = 'uploading' | 'checking' | 'ready' | 'failed';
+export type UploadState = 'queued' | 'uploading' | 'checking' | 'ready' | 'failed';
 
 export interface UploadItem {
   key: string;
@@ -43,6 +43,20 @@ function readyItem(file: DeskFile): UploadItem {
   };
 }
 
+const BUSY_RETRIES = 2;
+
+/** The API answers 503 with Retry-After when the database is momentarily busy; that is worth waiting for. */
+async function patiently<T>(call: () => Promise<T>): Promise<T> {
+  for (let attempt = 0; ; attempt++) {
+    try {
+      return await call();
+    } catch (err) {
+      if (!(err instanceof ApiError) || err.status !== 503 || attempt >= BUSY_RETRIES) throw err;
+      await new Promise((r) => setTimeout(r, (err.retryAfterS ?? 2) * 1000));
+    }
+  }
+}
+
 /** The field messages say more than "Some fields need attention" (e.g. the size or type limit). */
 function messageOf(err: unknown): string {
   if (err instanceof ApiError) return Object.values(err.fields ?? {})[0] ?? err.message;
@@ -65,12 +79,24 @@ export function useUploads(listingId: string | null, initial: readonly DeskFile[
   const drop = useCallback((key: string) => setItems((all) => all.filter((it) => it.key !== key)), []);
 
   const upload = useMutation<DeskFile, unknown, UploadVars>({
+    // One file at a time: a queue is easy to follow, and the server checks each file as it completes.
+    scope: { id: `uploads-${listingId ?? ''}` },
     mutationFn: async (v) => {
+      if (cancelled.current.has(v.key)) throw new UploadAborted('Upload cancelled.');
+      patch(v.key, { state: 'uploading' });
       const base = `/api/listings/${encodeURIComponent(listingId ?? '')}/uploads`;
       const contentType = contentTypeOf(v.file);
-      const created = await api<{ fileId: string; uploadUrl: string }>(base, {
-        body: { kind: v.kind, filename: v.file.name, contentType, size: v.file.size, ...(v.measurementKind ? { measurementKind: v.measurementKind } : {}) },
-      });
+      const created = await patiently(() =>
+        api<{ fileId: string; uploadUrl: string }>(base, {
+          body: {
+            kind: v.kind,
+            filename: v.file.name,
+            contentType,
+            size: v.file.size,
+            ...(v.measurementKind ? { measurementKind: v.measurementKind } : {}),
+          },
+        }),
+      );
       if (cancelled.current.has(v.key)) {
         // Removed while the upload was being set up: nothing will arrive for this pending file.
         await api(`${base}/${encodeURIComponent(created.fileId)}`, { method: 'DELETE' });
@@ -85,7 +111,7 @@ export function useUploads(listingId: string | null, initial: readonly DeskFile[
         puts.current.delete(v.key);
       }
       patch(v.key, { state: 'checking', progress: 1 });
-      return api<DeskFile>(`${base}/${encodeURIComponent(created.fileId)}/complete`, { method: 'POST' });
+      return patiently(() => api<DeskFile>(`${base}/${encodeURIComponent(created.fileId)}/complete`, { method: 'POST' }));
     },
     onSuccess: (file, v) => {
       setItems((all) =>
@@ -105,7 +131,9 @@ export function useUploads(listingId: string | null, initial: readonly DeskFile[
     mutationFn: async (item) => {
       if (!item.fileId) return null;
       try {
-        return await api(`/api/listings/${encodeURIComponent(listingId ?? '')}/uploads/${encodeURIComponent(item.fileId)}`, { method: 'DELETE' });
+        return await api(`/api/listings/${encodeURIComponent(listingId ?? '')}/uploads/${encodeURIComponent(item.fileId)}`, {
+          method: 'DELETE',
+        });
       } catch (err) {
         if (err instanceof ApiError && err.status === 404) return null;
         throw err;
@@ -121,7 +149,18 @@ export function useUploads(listingId: string | null, initial: readonly DeskFile[
       for (const file of Array.from(files)) {
         counter.current += 1;
         const key = `upload-${counter.current}`;
-        const item: UploadItem = { key, kind, measurementKind, filename: file.name, size: file.size, state: 'uploading', progress: 0, error: null, fileId: null, file: null };
+        const item: UploadItem = {
+          key,
+          kind,
+          measurementKind,
+          filename: file.name,
+          size: file.size,
+          state: 'queued',
+          progress: 0,
+          error: null,
+          fileId: null,
+          file: null,
+        };
         setItems((all) => [...all, item]);
         upload.mutate({ key, file, kind, measurementKind });
       }
@@ -132,7 +171,7 @@ export function useUploads(listingId: string | null, initial: readonly DeskFile[
   /** Cancels an upload in flight (the server's pending file is deleted too) or removes a stored file. */
   const discard = useCallback(
     (item: UploadItem) => {
-      if (item.state === 'uploading') {
+      if (item.state === 'queued' || item.state === 'uploading') {
         cancelled.current.add(item.key);
         puts.current.get(item.key)?.abort();
       }
