@@ -11,8 +11,12 @@ async function hydrated(page: Page, component: string) {
 }
 
 async function signIn(page: Page, next: string) {
+  await signInAs(page, 'seller', next);
+}
+
+async function signInAs(page: Page, who: string, next: string) {
   await page.goto(`/sign-in?next=${encodeURIComponent(next)}`);
-  await page.getByLabel('E-mail address').fill('seller@demo.lightyard.example');
+  await page.getByLabel('E-mail address').fill(`${who}@demo.lightyard.example`);
   await page.getByLabel('Password').fill('demo-password-1');
   await page.getByRole('button', { name: 'Sign in' }).click();
   await expect(page).toHaveURL(new RegExp(`${next}$`));
@@ -37,8 +41,9 @@ function ringdownCsv(): string {
 const MINIMAL_PDF =
   '%PDF-1.4\n1 0 obj <</Type /Catalog /Pages 2 0 R>> endobj\n2 0 obj <</Type /Pages /Kids [] /Count 0>> endobj\ntrailer <</Root 1 0 R>>\n%%EOF\n';
 
-test('the demo seller lists a cavity mirror with a photo, a datasheet and a ring-down trace, and submits it for review', async ({
+test('the demo seller lists a cavity mirror with a photo, a datasheet and a ring-down trace; a moderator approves it; only its lab may edit it', async ({
   page,
+  browser,
 }) => {
   const title = `E2E supermirror 780 nm ${Date.now()}`;
   await signIn(page, '/desk');
@@ -163,6 +168,37 @@ test('the demo seller lists a cavity mirror with a photo, a datasheet and a ring
   await expect(row.getByText('Saved')).toBeVisible();
   await page.reload();
   await expect(page.locator(`tr[data-listing="${title}"]`).getByRole('spinbutton', { name: `Stock of ${title}` })).toHaveValue('3');
+
+  // The moderator approves it from the review queue; it goes live with its measured finesse.
+  const href = await page.locator(`tr[data-listing="${title}"]`).getByRole('link', { name: 'Edit' }).getAttribute('href');
+  const listingId = href!.split('/').pop()!;
+  const modCtx = await browser.newContext();
+  const mod = await modCtx.newPage();
+  await signInAs(mod, 'moderator', '/moderation');
+  await mod.getByRole('link', { name: title }).click();
+  await hydrated(mod, 'ModerationPanel');
+  await mod.getByRole('button', { name: 'Approve' }).click();
+  await expect(mod).toHaveURL(/\/moderation$/);
+  await expect(mod.getByRole('link', { name: title })).toHaveCount(0);
+  await modCtx.close();
+
+  const anonCtx = await browser.newContext();
+  const anon = await anonCtx.newPage();
+  await anon.goto(`/listings/${listingId}`);
+  await expect(anon.getByTestId('listing-title')).toHaveText(title);
+  await anon.getByTestId('measurement-ringdown').scrollIntoViewIfNeeded();
+  await expect(anon.getByTestId('ringdown-finesse')).toHaveText(/^3[67]\d\u2009\d{3}$/);
+  await anonCtx.close();
+
+  // Neither a buyer nor the owner of another lab may edit it.
+  for (const who of ['buyer', 'seller2']) {
+    const ctx = await browser.newContext();
+    const other = await ctx.newPage();
+    await signInAs(other, who, '/account');
+    const r = await other.request.patch(`/api/listings/${listingId}`, { data: { priceCents: 1 } });
+    expect(r.status()).toBe(403);
+    await ctx.close();
+  }
 });
 
 test('the desk sorts, filters and searches, duplicates a listing and archives it after a confirmation', async ({ page }) => {

@@ -16,9 +16,9 @@ export const test = base.extend<{ consoleErrors: string[] }>({
   ],
 });
 
-/** The browser logs failed fetches (4xx) that the page handles on purpose, e.g. a 403 page load. */
+/** The browser logs failed fetches (4xx) that the page handles on purpose: a 403 page load, a refused upload shown beside its file. */
 function expectedConsoleError(text: string): boolean {
-  return /Failed to load resource: the server responded with a status of (401|403|404|409|429)/.test(text);
+  return /Failed to load resource: the server responded with a status of (400|401|403|404|409|413|415|422|429)/.test(text);
 }
 
 export { expect };
