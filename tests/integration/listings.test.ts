@@ -186,3 +186,43 @@ describe('fit API', () => {
     expect((await anon.post('/api/fit/nothing', {})).status).toBe(404);
   });
 });
+
+describe('questions and reports', () => {
+  test('a buyer’s question reaches the lab by e-mail, the lab answers in the app, others cannot read the thread', async () => {
+    const seller = await as('seller');
+    const { id } = await (await seller.post('/api/listings', mirror({ title: 'Mirror with questions' }))).json();
+    await seller.post(`/api/listings/${id}/submit`);
+    await (await as('moderator')).post(`/api/moderation/listings/${id}`, { action: 'approve' });
+
+    const buyer = await as('buyer');
+    const asked = await buyer.post(`/api/listings/${id}/questions`, { body: 'Was the ring-down measured at 780 nm?' });
+    expect(asked.status).toBe(201);
+    const { threadId } = await asked.json();
+    const toLab = await waitForMail(app.mailDir, 'member@demo.lightyard.example', /^Question about Mirror with questions/);
+    expect(toLab.text).toContain('Was the ring-down measured at 780 nm?');
+    expect(toLab.text).toContain(`/messages/${threadId}`);
+
+    const member = await as('member');
+    expect((await member.post(`/api/threads/${threadId}/messages`, { body: 'Yes, at 780.2 nm in a 5 cm cavity.' })).status).toBe(201);
+    await waitForMail(app.mailDir, 'buyer@demo.lightyard.example', /^Answer about Mirror with questions/);
+    const thread = await (await buyer.get(`/api/threads/${threadId}/messages`)).json();
+    expect(thread.messages.map((m: { body: string }) => m.body)).toEqual(['Was the ring-down measured at 780 nm?', 'Yes, at 780.2 nm in a 5 cm cavity.']);
+    expect((await (await as('seller2')).get(`/api/threads/${threadId}/messages`)).status).toBe(403);
+    expect((await seller.post(`/api/listings/${id}/questions`, { body: 'Asking myself' })).status).toBe(409);
+  });
+
+  test('a report reaches the moderators’ queue and can be resolved', async () => {
+    const pub = await (await new Client(app.origin).get('/api/listings?limit=1')).json();
+    const listingId = pub.items[0].id;
+    const buyer = await as('buyer');
+    const r = await buyer.post(`/api/listings/${listingId}/reports`, { reason: 'The photo shows a different part.' });
+    expect(r.status).toBe(201);
+    const { id } = await r.json();
+    const mod = await as('moderator');
+    const page = await (await mod.get('/moderation')).text();
+    expect(page).toContain('The photo shows a different part.');
+    expect((await buyer.post(`/api/moderation/reports/${id}/resolve`)).status).toBe(403);
+    expect((await mod.post(`/api/moderation/reports/${id}/resolve`)).status).toBe(200);
+    expect(await (await mod.get('/moderation')).text()).not.toContain('The photo shows a different part.');
+  });
+});
