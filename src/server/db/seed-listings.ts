@@ -6,6 +6,7 @@ import type { Category, Condition, Hazard, Region } from '../../lib/listings/con
 import { ListingInputSchema } from '../../lib/specs';
 import type { PublishedListing } from './schema';
 import { buildListing } from './factories';
+import { seededRandom } from './synthetic';
 
 export interface DemoListing {
   lab: 'cavity' | 'squeezing' | 'startup';
@@ -24,18 +25,6 @@ export interface DemoListing {
   inReview?: boolean;
   /** Synthetic measurement files the seed generates for this listing. */
   measurements?: ('ringdown' | 'spectrum' | 'efficiency-curve')[];
-}
-
-/** A small deterministic generator so the demo is the same on every machine. */
-function prng(seed: number) {
-  let s = seed >>> 0;
-  return () => {
-    s = (s + 0x6d2b79f5) >>> 0;
-    let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }
 
 const round = (x: number, digits = 2) => Number(x.toFixed(digits));
@@ -316,7 +305,7 @@ function crystalsAndOther(): DemoListing[] {
 }
 
 export function demoListings(): DemoListing[] {
-  const rand = prng(20261201);
+  const rand = seededRandom(20261201);
   return [...mirrors(rand), ...detectors(rand), ...counters(rand), ...lasers(rand), ...crystalsAndOther()];
 }
 

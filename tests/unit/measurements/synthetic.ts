@@ -1,21 +1,8 @@
 // Synthetic measurement files with a seeded random generator, so every run sees the same noise.
 
-/** mulberry32: a small, well-mixed 32-bit generator (common practice for reproducible test noise). */
-export function mulberry32(seed: number): () => number {
-  let s = seed >>> 0;
-  return () => {
-    s = (s + 0x6d2b79f5) >>> 0;
-    let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { gaussian, seededRandom as mulberry32 } from '../../../src/server/db/synthetic';
 
-/** Standard normal deviates by the Box–Muller transform. */
-export function gaussian(rand: () => number): () => number {
-  return () => Math.sqrt(-2 * Math.log(1 - rand())) * Math.cos(2 * Math.PI * rand());
-}
+export { gaussian, mulberry32 };
 
 export interface TraceOptions {
   tauS: number;
