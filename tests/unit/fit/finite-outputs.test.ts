@@ -16,6 +16,7 @@ const logUniform = (lo: number, hi: number) => fc.double({ min: lo, max: hi, noN
 const mix = (domain: fc.Arbitrary<number>) => fc.oneof({ weight: 1, arbitrary: anyFinite }, { weight: 4, arbitrary: domain });
 const frac = mix(fc.double({ min: 0, max: 1, noNaN: true }));
 const smallFrac = mix(logUniform(-9, -0.01));
+const highFrac = mix(fc.double({ min: 0.2, max: 1, noNaN: true }));
 const len = mix(logUniform(-6, 4));
 const lambda = mix(logUniform(-6.7, -5.4));
 const hz = mix(logUniform(-3, 12));
@@ -213,7 +214,8 @@ const GENERATORS: Record<string, fc.Arbitrary<Args>> = {
     fc.record({ loss1: smallFrac, loss2: smallFrac, extraLoss: smallFrac }, { requiredKeys: ['loss1', 'loss2'] }),
   ),
   coefficientOfFinesse: one(fc.record({ r1: frac, r2: frac, extraLoss: smallFrac }, { requiredKeys: ['r1', 'r2'] })),
-  finesseFwhm: one(fc.record({ r1: frac, r2: frac, extraLoss: smallFrac }, { requiredKeys: ['r1', 'r2'] })),
+  // the FWHM form is defined for ρ above 0.0294, so most draws should land there
+  finesseFwhm: one(fc.record({ r1: highFrac, r2: highFrac, extraLoss: smallFrac }, { requiredKeys: ['r1', 'r2'] })),
   finesseLowLoss: one(
     fc.record({ t1: smallFrac, t2: smallFrac, a1: smallFrac, a2: smallFrac, extraLoss: smallFrac }, { requiredKeys: ['t1', 't2'] }),
   ),
