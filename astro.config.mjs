@@ -17,6 +17,9 @@ export default defineConfig({
   security: { checkOrigin: true, allowedDomains: [...hostnames].map((hostname) => ({ hostname })) },
   server: { host: '127.0.0.1', port: 4321 },
   devToolbar: { enabled: false },
+  // Astro hashes the scripts and styles it inlines and sends them in a CSP header on each page;
+  // src/server/http/security-headers.ts takes those hashes into the app's own policy.
+  experimental: { csp: true },
   vite: {
     plugins: [tailwindcss()],
     ssr: { external: ['@node-rs/argon2', 'sharp', '@libsql/client', 'libsql'] },

@@ -21,6 +21,8 @@ export const ConfigSchema = z.object({
   SMTP_IGNORE_TLS: flag,
   MAIL_FROM: z.string().default('Lightyard <no-reply@lightyard.example>'),
   MAIL_DIR: z.string().default('./data/mail'),
+  /** The outbox's first retry delay after a failed delivery, ms; each further attempt doubles it (capped at 10 minutes). */
+  MAIL_RETRY_BASE_MS: z.coerce.number().int().min(100).max(600_000).default(5000),
   S3_ENDPOINT: z.string().url().optional(),
   S3_REGION: z.string().default('us-east-1'),
   S3_BUCKET: z.string().default('lightyard'),

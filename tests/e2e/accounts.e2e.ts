@@ -36,7 +36,7 @@ test('sign up, confirm by the e-mailed link, sign in; a buyer meets the 403 page
   await admin.getByLabel('E-mail address').fill('admin@demo.lightyard.example');
   await admin.getByLabel('Password').fill('demo-password-1');
   await admin.getByRole('button', { name: 'Sign in' }).click();
-  await expect(admin).toHaveURL(/\/admin$/);
+  await admin.waitForURL((u) => u.pathname === '/admin');
   await admin.getByLabel('Find people').fill(email);
   const seller = admin.getByRole('checkbox', { name: `Seller role for ${email}` });
   await expect(seller).not.toBeChecked();

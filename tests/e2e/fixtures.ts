@@ -1,15 +1,32 @@
-import { test as base, expect } from '@playwright/test';
+import { test as base, expect, type Page } from '@playwright/test';
 
-/** Every e2e test fails on an unexpected console error or an uncaught page error. */
+/**
+ * Every e2e test fails on an unexpected console error or an uncaught page error, in its `page` and in every
+ * page of the contexts it opens itself (a second user): a CSP violation is a console error, so each test also
+ * checks the pages it visits against the Content-Security-Policy.
+ */
 export const test = base.extend<{ consoleErrors: string[] }>({
   consoleErrors: [
-    async ({ page }, use) => {
+    async ({ page, browser }, use) => {
       const errors: string[] = [];
-      page.on('console', (m) => {
-        if (m.type() === 'error' && !expectedConsoleError(m.text())) errors.push(m.text());
-      });
-      page.on('pageerror', (e) => errors.push(String(e)));
-      await use(errors);
+      const watch = (p: Page) => {
+        p.on('console', (m) => {
+          if (m.type() === 'error' && !expectedConsoleError(m.text())) errors.push(`${p.url()}: ${m.text()}`);
+        });
+        p.on('pageerror', (e) => errors.push(`${p.url()}: ${String(e)}`));
+      };
+      watch(page);
+      const newContext = browser.newContext;
+      browser.newContext = async (...args) => {
+        const ctx = await newContext.apply(browser, args);
+        ctx.on('page', watch);
+        return ctx;
+      };
+      try {
+        await use(errors);
+      } finally {
+        browser.newContext = newContext;
+      }
       expect(errors, 'console errors').toEqual([]);
     },
     { auto: true },

@@ -15,10 +15,14 @@ export interface TestApp {
   mailDir: string;
   env: Record<string, string>;
   fakes: RunningFakes;
+  /** Sends the app process a signal (SIGKILL by default) and waits until it has exited; the fakes keep running. */
+  kill(signal?: NodeJS.Signals): Promise<void>;
+  /** Starts the app process again on the same folder, database, port and fakes, and waits until it answers. */
+  restart(): Promise<void>;
   stop(): Promise<void>;
 }
 
-function freePort(): Promise<number> {
+export function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
     const srv = createServer();
     srv.listen(0, '127.0.0.1', () => {
@@ -29,10 +33,12 @@ function freePort(): Promise<number> {
   });
 }
 
+const hasExited = (child: ChildProcess) => child.exitCode !== null || child.signalCode !== null;
+
 async function waitUntilUp(origin: string, child: ChildProcess, log: () => string) {
   const until = Date.now() + 30_000;
   while (Date.now() < until) {
-    if (child.exitCode !== null) throw new Error(`The app exited early:\n${log()}`);
+    if (hasExited(child)) throw new Error(`The app exited early:\n${log()}`);
     try {
       const r = await fetch(`${origin}/cautions`);
       if (r.ok) return;
@@ -80,19 +86,33 @@ export async function startTestApp(opts: { seed?: boolean; files?: boolean; env?
     await seedDemo({ files: opts.files ?? false });
   }
   let output = '';
-  const child = spawn(process.execPath, ['dist/server/entry.mjs'], { env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
-  child.stdout!.on('data', (d) => (output += d));
-  child.stderr!.on('data', (d) => (output += d));
-  await waitUntilUp(origin, child, () => output);
+  let child: ChildProcess;
+  const launch = async () => {
+    child = spawn(process.execPath, ['dist/server/entry.mjs'], { env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
+    child.stdout!.on('data', (d) => (output += d));
+    child.stderr!.on('data', (d) => (output += d));
+    await waitUntilUp(origin, child, () => output);
+  };
+  const kill = async (signal: NodeJS.Signals = 'SIGKILL') => {
+    if (hasExited(child)) return;
+    const exited = new Promise((r) => child.once('exit', r));
+    child.kill(signal);
+    await exited;
+  };
+  await launch();
   return {
     origin,
     dir,
     mailDir,
     env,
     fakes,
+    kill,
+    async restart() {
+      if (!hasExited(child)) throw new Error('restart() starts a stopped app: call kill() first');
+      await launch();
+    },
     async stop() {
-      child.kill('SIGTERM');
-      await new Promise((r) => (child.exitCode !== null ? r(null) : child.once('exit', r)));
+      await kill('SIGTERM');
       await fakes.stop();
       await closeDb();
       rmSync(dir, { recursive: true, force: true });

@@ -15,9 +15,9 @@ export interface Mail {
 const LEASE_MS = 60_000;
 const MAX_ATTEMPTS = 12;
 
-/** Backoff between attempts: 5 s, 10 s, 20 s … capped at 10 minutes. */
+/** Backoff between attempts: MAIL_RETRY_BASE_MS (5 s), then doubling: 10 s, 20 s … capped at 10 minutes. */
 function backoffMs(attempts: number): number {
-  return Math.min(5_000 * 2 ** Math.max(0, attempts - 1), 600_000);
+  return Math.min(getConfig().MAIL_RETRY_BASE_MS * 2 ** Math.max(0, attempts - 1), 600_000);
 }
 
 /**

@@ -23,7 +23,11 @@ export function endpoint(handler: (ctx: APIContext) => Promise<Response | unknow
   };
 }
 
+/** Drizzle wraps the driver's error (DrizzleQueryError), so the busy code may sit further down the cause chain. */
 function isBusy(err: unknown): boolean {
-  const text = String((err as { code?: string })?.code ?? '') + String((err as Error)?.message ?? '');
-  return /SQLITE_BUSY|database is locked/i.test(text);
+  for (let e = err, depth = 0; e && depth < 5; e = (e as { cause?: unknown }).cause, depth++) {
+    const text = String((e as { code?: string }).code ?? '') + String((e as Error).message ?? '');
+    if (/SQLITE_BUSY|database is locked/i.test(text)) return true;
+  }
+  return false;
 }

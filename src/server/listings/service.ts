@@ -9,6 +9,8 @@ import type { CurrentUser } from '../auth/users';
 import { kickOutbox, queueMail } from '../email/outbox';
 import { getConfig } from '../config';
 import { notifyListingChanged } from './events';
+// The search index and saved-search matcher listen to listing changes in every process that makes them.
+import '../search/subscribe';
 
 export interface ListingFields {
   category: Listing['category'];

@@ -6,6 +6,7 @@ import {
   ListObjectsV2Command,
   PutObjectCommand,
 } from '@aws-sdk/client-s3';
+import { HttpError } from '../http/errors';
 import { bucketName, getS3 } from './s3-client';
 
 export interface ObjectHead {
@@ -24,6 +25,27 @@ export class ObjectTooLargeError extends Error {
   }
 }
 
+const UNREACHABLE = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EHOSTUNREACH', 'ENETUNREACH', 'EPIPE', 'ENOTFOUND', 'EAI_AGAIN']);
+
+/**
+ * Storage that cannot be reached (or answers 5xx) becomes a 503 the client may retry; the file's row is
+ * left as it was, so the same upload can be completed once storage is back.
+ */
+function storageUnavailable(err: unknown): HttpError | null {
+  const e = err as { code?: string; name?: string; $metadata?: { httpStatusCode?: number } };
+  const status = e?.$metadata?.httpStatusCode;
+  if ((status === undefined && (UNREACHABLE.has(e?.code ?? '') || e?.name === 'TimeoutError')) || (status ?? 0) >= 500) {
+    return new HttpError(503, 'unavailable', 'File storage is not answering right now. Try again in a minute.', undefined, {
+      'retry-after': '30',
+    });
+  }
+  return null;
+}
+
+function rethrow(err: unknown): never {
+  throw storageUnavailable(err) ?? err;
+}
+
 function isMissing(err: unknown): boolean {
   const e = err as { name?: string; $metadata?: { httpStatusCode?: number } };
   return e?.name === 'NotFound' || e?.name === 'NoSuchKey' || e?.$metadata?.httpStatusCode === 404;
@@ -32,7 +54,9 @@ function isMissing(err: unknown): boolean {
 /** The object's size and type, or null when there is no such object. */
 export async function headObject(key: string): Promise<ObjectHead | null> {
   try {
-    const head = await getS3().send(new HeadObjectCommand({ Bucket: bucketName(), Key: key }));
+    const head = await getS3()
+      .send(new HeadObjectCommand({ Bucket: bucketName(), Key: key }))
+      .catch(rethrow);
     return { size: head.ContentLength ?? 0, contentType: head.ContentType ?? null };
   } catch (err) {
     if (isMissing(err)) return null;
@@ -47,7 +71,9 @@ export async function headObject(key: string): Promise<ObjectHead | null> {
 export async function getObjectBytes(key: string, maxBytes: number): Promise<Buffer | null> {
   let body: AsyncIterable<Uint8Array> & { destroy?: () => void };
   try {
-    const res = await getS3().send(new GetObjectCommand({ Bucket: bucketName(), Key: key }));
+    const res = await getS3()
+      .send(new GetObjectCommand({ Bucket: bucketName(), Key: key }))
+      .catch(rethrow);
     if (!res.Body) return Buffer.alloc(0);
     body = res.Body as unknown as typeof body;
   } catch (err) {
@@ -68,13 +94,15 @@ export async function getObjectBytes(key: string, maxBytes: number): Promise<Buf
 }
 
 export async function putObject(key: string, body: Buffer, contentType: string): Promise<void> {
-  await getS3().send(
-    new PutObjectCommand({ Bucket: bucketName(), Key: key, Body: body, ContentType: contentType, ContentLength: body.byteLength }),
-  );
+  await getS3()
+    .send(new PutObjectCommand({ Bucket: bucketName(), Key: key, Body: body, ContentType: contentType, ContentLength: body.byteLength }))
+    .catch(rethrow);
 }
 
 export async function deleteObject(key: string): Promise<void> {
-  await getS3().send(new DeleteObjectCommand({ Bucket: bucketName(), Key: key }));
+  await getS3()
+    .send(new DeleteObjectCommand({ Bucket: bucketName(), Key: key }))
+    .catch(rethrow);
 }
 
 /** S3 accepts at most 1000 keys per DeleteObjects request. */
@@ -83,9 +111,9 @@ const DELETE_BATCH = 1000;
 export async function deleteObjects(keys: string[]): Promise<void> {
   for (let i = 0; i < keys.length; i += DELETE_BATCH) {
     const batch = keys.slice(i, i + DELETE_BATCH);
-    const res = await getS3().send(
-      new DeleteObjectsCommand({ Bucket: bucketName(), Delete: { Objects: batch.map((Key) => ({ Key })), Quiet: true } }),
-    );
+    const res = await getS3()
+      .send(new DeleteObjectsCommand({ Bucket: bucketName(), Delete: { Objects: batch.map((Key) => ({ Key })), Quiet: true } }))
+      .catch(rethrow);
     const failed = res.Errors ?? [];
     if (failed.length) throw new Error(`Could not delete ${failed.map((e) => `${e.Key} (${e.Code})`).join(', ')}`);
   }
@@ -95,7 +123,9 @@ export async function listKeys(prefix: string): Promise<string[]> {
   const keys: string[] = [];
   let token: string | undefined;
   do {
-    const page = await getS3().send(new ListObjectsV2Command({ Bucket: bucketName(), Prefix: prefix, ContinuationToken: token }));
+    const page = await getS3()
+      .send(new ListObjectsV2Command({ Bucket: bucketName(), Prefix: prefix, ContinuationToken: token }))
+      .catch(rethrow);
     for (const o of page.Contents ?? []) if (o.Key) keys.push(o.Key);
     token = page.IsTruncated ? page.NextContinuationToken : undefined;
   } while (token);

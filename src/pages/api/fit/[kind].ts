@@ -64,7 +64,9 @@ const ROUTES: Record<string, Route<unknown>> = {
 
 export const POST = endpoint(async (ctx) => {
   await rateLimit(`fit:${clientAddress(ctx)}`, 600, 60_000);
-  const r = ROUTES[ctx.params.kind ?? ''];
+  const kind = ctx.params.kind ?? '';
+  // own keys only: "constructor" or "toString" would otherwise find Object.prototype's
+  const r = Object.hasOwn(ROUTES, kind) ? ROUTES[kind] : undefined;
   if (!r) throw notFound(`No fit kind "${ctx.params.kind}". Use cavity, modes, squeezing, counting, laser or crystal.`);
   const body = await readJson(ctx.request, r.schema);
   try {
