@@ -1,7 +1,6 @@
 import { useMutation } from '@tanstack/react-query';
 import Papa from 'papaparse';
 import { api, type ApiError } from '../../lib/api-client';
-import { formatMoney } from '../../lib/format';
 import { FormMessage } from '../forms/Field';
 import { QueryRoot } from '../forms/QueryRoot';
 import { Plot } from '../tools/Plot';
