@@ -33,7 +33,16 @@ const SHARES: [Category, number][] = [
 ];
 const CONDITIONS: Condition[] = ['new', 'like-new', 'used-tested', 'used-untested', 'for-parts'];
 const REGION_SETS: Region[][] = [['WORLD'], ['EU', 'UK'], ['EU', 'UK', 'US'], ['US', 'CA'], ['APAC'], ['EU']];
-const WORDS = ['Stored in cleanroom packaging', 'from a finished experiment', 'tested last month', 'with the original test report', 'never mounted', 'small edge chip outside the clear aperture', 'ships in a nitrogen-purged box', 'spare from a coating run'];
+const WORDS = [
+  'Stored in cleanroom packaging',
+  'from a finished experiment',
+  'tested last month',
+  'with the original test report',
+  'never mounted',
+  'small edge chip outside the clear aperture',
+  'ships in a nitrogen-purged box',
+  'spare from a coating run',
+];
 
 interface Generated {
   category: Category;
@@ -77,12 +86,25 @@ function mirror(rand: () => number): Generated {
       notes: [],
       points: Array.from({ length: 41 }, (_, i) => {
         const x = (i - 20) / 20;
-        return { wavelengthNm: r2(wl - half + (i * 2 * half) / 40), transmissionPpm: r2(t * (1 + 2 * x * x)), lossPpm: r2(loss * (1 + 0.05 * rand())) };
+        return {
+          wavelengthNm: r2(wl - half + (i * 2 * half) / 40),
+          transmissionPpm: r2(t * (1 + 2 * x * x)),
+          lossPpm: r2(loss * (1 + 0.05 * rand())),
+        };
       }),
     };
   } else if (m < 0.15) {
     const perMirror = (t + loss) * 0.9;
-    measurement = { kind: 'ringdown', notes: [], points: [], lengthM: 0.05, wavelengthNm: wl, groupIndex: null, figures: null, fit: { tauS: 0.05 / (299_792_458 * perMirror * 1e-6) } };
+    measurement = {
+      kind: 'ringdown',
+      notes: [],
+      points: [],
+      lengthM: 0.05,
+      wavelengthNm: wl,
+      groupIndex: null,
+      figures: null,
+      fit: { tauS: 0.05 / (299_792_458 * perMirror * 1e-6) },
+    };
   }
   const pair = rand() < 0.5;
   return {
@@ -112,11 +134,21 @@ function detector(rand: () => number, category: 'photodiode' | 'balanced-detecto
   };
   const measurement =
     rand() < 0.2
-      ? { kind: 'efficiency-curve', notes: [], points: Array.from({ length: 31 }, (_, i) => ({ wavelengthNm: wl - 150 + 10 * i, efficiency: Math.min(0.999, qe * (1 - 0.3 * ((i - 15) / 15) ** 2)) })) }
+      ? {
+          kind: 'efficiency-curve',
+          notes: [],
+          points: Array.from({ length: 31 }, (_, i) => ({
+            wavelengthNm: wl - 150 + 10 * i,
+            efficiency: Math.min(0.999, qe * (1 - 0.3 * ((i - 15) / 15) ** 2)),
+          })),
+        }
       : null;
   return {
     category,
-    title: category === 'balanced-detector' ? `Balanced detector, ${wl} nm, ${Number(specs.bandwidthHz) / 1e6} MHz` : `${material} photodiode, ${specs.activeDiameterMm} mm, ${wl} nm`,
+    title:
+      category === 'balanced-detector'
+        ? `Balanced detector, ${wl} nm, ${Number(specs.bandwidthHz) / 1e6} MHz`
+        : `${material} photodiode, ${specs.activeDiameterMm} mm, ${wl} nm`,
     description: `Detector from a squeezed-light source, ${pick(rand, WORDS)}.`,
     specs,
     measurement,
@@ -153,7 +185,18 @@ function laser(rand: () => number): Generated {
     category: 'laser',
     title: `${wl} nm single-frequency laser, ${Math.round(power * 1000)} mW`,
     description: `Includes the controller, ${pick(rand, WORDS)}.`,
-    specs: { type: 'ecdl', centreWavelengthNm: wl, tuningMinNm: wl - span, tuningMaxNm: wl + span, linewidthHz: { value: lw, tol: lw * 0.3 }, linewidthTimeS: 1e-4, powerW: { value: power, tol: power * 0.05 }, singleFrequency: true, fibreOutput: rand() < 0.5, hazardClass: '3B' },
+    specs: {
+      type: 'ecdl',
+      centreWavelengthNm: wl,
+      tuningMinNm: wl - span,
+      tuningMaxNm: wl + span,
+      linewidthHz: { value: lw, tol: lw * 0.3 },
+      linewidthTimeS: 1e-4,
+      powerW: { value: power, tol: power * 0.05 },
+      singleFrequency: true,
+      fibreOutput: rand() < 0.5,
+      hazardClass: '3B',
+    },
     measurement: null,
   };
 }
@@ -164,7 +207,15 @@ function crystal(rand: () => number): Generated {
     category: 'nonlinear-crystal',
     title: `PPKTP for ${signal / 2} → ${signal} nm`,
     description: `Type-0 crystal, ${pick(rand, WORDS)}.`,
-    specs: { material: 'PPKTP', polingPeriodsUm: [r2(9 + 20 * rand())], phaseMatching: 'type-0', pumpWavelengthNm: signal / 2, signalWavelengthNm: signal, lengthMm: pick(rand, [10, 15, 20]), ovenIncluded: rand() < 0.5 },
+    specs: {
+      material: 'PPKTP',
+      polingPeriodsUm: [r2(9 + 20 * rand())],
+      phaseMatching: 'type-0',
+      pumpWavelengthNm: signal / 2,
+      signalWavelengthNm: signal,
+      lengthMm: pick(rand, [10, 15, 20]),
+      ovenIncluded: rand() < 0.5,
+    },
     measurement: null,
   };
 }
@@ -175,7 +226,14 @@ function other(rand: () => number): Generated {
     category: 'other',
     title: `Optical isolator, ${wl - 20}–${wl + 20} nm`,
     description: `Free-space isolator, ${pick(rand, WORDS)}.`,
-    specs: { componentType: 'isolator', wavelengthMinNm: wl - 20, wavelengthMaxNm: wl + 20, apertureMm: 5, insertionLossDb: 0.8, isolationDb: 40 },
+    specs: {
+      componentType: 'isolator',
+      wavelengthMinNm: wl - 20,
+      wavelengthMaxNm: wl + 20,
+      apertureMm: 5,
+      insertionLossDb: 0.8,
+      isolationDb: 40,
+    },
     measurement: null,
   };
 }
@@ -203,7 +261,13 @@ export async function growCatalogue(total: number, rand: () => number): Promise<
   const db = getDb();
   const labIds = (await db.select({ id: labs.id }).from(labs)).map((l) => l.id);
   if (labIds.length === 0) {
-    const rows = Array.from({ length: LAB_COUNT }, (_, i) => ({ id: `lab-${i}`, slug: `bench-lab-${i}`, name: `${LAB_FIRST[i % LAB_FIRST.length]} ${LAB_SECOND[Math.floor(i / LAB_FIRST.length)]}`, institute: 'Institute of Synthetic Optics', country: 'XX' }));
+    const rows = Array.from({ length: LAB_COUNT }, (_, i) => ({
+      id: `lab-${i}`,
+      slug: `bench-lab-${i}`,
+      name: `${LAB_FIRST[i % LAB_FIRST.length]} ${LAB_SECOND[Math.floor(i / LAB_FIRST.length)]}`,
+      institute: 'Institute of Synthetic Optics',
+      country: 'XX',
+    }));
     await db.insert(labs).values(rows);
     labIds.push(...rows.map((r) => r.id));
   }
@@ -215,7 +279,16 @@ export async function growCatalogue(total: number, rand: () => number): Promise<
     const rows = batch.map(({ n, g }) => {
       const priceCents = Math.round(100 + 30_000 * rand() ** 2) * 100;
       const cur = currency();
-      const published: PublishedListing = { title: g.title, description: g.description, condition: pick(rand, CONDITIONS), priceCents, currency: cur, shipsTo: pick(rand, REGION_SETS), specs: g.specs, approvedAt: start + n * 60_000 };
+      const published: PublishedListing = {
+        title: g.title,
+        description: g.description,
+        condition: pick(rand, CONDITIONS),
+        priceCents,
+        currency: cur,
+        shipsTo: pick(rand, REGION_SETS),
+        specs: g.specs,
+        approvedAt: start + n * 60_000,
+      };
       return {
         id: `bench-${n}`,
         labId: labIds[n % labIds.length] as string,
@@ -235,7 +308,20 @@ export async function growCatalogue(total: number, rand: () => number): Promise<
     const files = batch.flatMap(({ n, g }) =>
       g.measurement === null
         ? []
-        : [{ id: `bench-file-${n}`, listingId: `bench-${n}`, kind: 'measurement' as const, measurementKind: g.measurement.kind as 'spectrum', filename: 'm.csv', contentType: 'text/csv', size: 1000, storageKey: `bench/${n}`, status: 'ready' as const, data: g.measurement }],
+        : [
+            {
+              id: `bench-file-${n}`,
+              listingId: `bench-${n}`,
+              kind: 'measurement' as const,
+              measurementKind: g.measurement.kind as 'spectrum',
+              filename: 'm.csv',
+              contentType: 'text/csv',
+              size: 1000,
+              storageKey: `bench/${n}`,
+              status: 'ready' as const,
+              data: g.measurement,
+            },
+          ],
     );
     await db.transaction(async (tx) => {
       await tx.insert(listings).values(rows);

@@ -186,7 +186,11 @@ export interface FloorCavityGoal {
 }
 
 /** The pair goal (two units of one listing) over every mirror. */
-export function floorPair(A: MirrorArrays, g: FloorCavityGoal, k = 20): { ids: string[]; total: number; facets: Int32Array } {
+export function floorPair(
+  A: MirrorArrays,
+  g: FloorCavityGoal,
+  k = 20,
+): { ids: string[]; headrooms: number[]; total: number; facets: Int32Array } {
   const counts = new Int32Array(FACETS * VALUES);
   const rank = new Int8Array(A.n);
   const headroom = new Float64Array(A.n);
@@ -209,7 +213,8 @@ export function floorPair(A: MirrorArrays, g: FloorCavityGoal, k = 20): { ids: s
     }
     n++;
   }
-  return { ids: topK(n, rank, headroom, price, k).map((j) => A.ids[index[j]!]!), total: n, facets: counts };
+  const top = topK(n, rank, headroom, price, k);
+  return { ids: top.map((j) => A.ids[index[j]!]!), headrooms: top.map((j) => headroom[j]!), total: n, facets: counts };
 }
 
 /** The best `k` pairs of two listings: mirrors in band sorted by worst-case loss, a best-first walk, stability checked per pair. */
@@ -270,7 +275,13 @@ export function floorTwoListings(A: MirrorArrays, g: FloorCavityGoal, k = 100): 
     const b = usable[j]!;
     if (!stable(g.lengthM, A.roc[a]!, A.roc[b]!)) continue;
     const f = finesse(nominal[a]!, nominal[b]!, g.extraLoss);
-    found.push({ a, b, rank: fw >= g.finesse ? 2 : f >= g.finesse ? 1 : 0, headroom: fw / g.finesse - 1, price: A.price[a]! + A.price[b]! });
+    found.push({
+      a,
+      b,
+      rank: fw >= g.finesse ? 2 : f >= g.finesse ? 1 : 0,
+      headroom: fw / g.finesse - 1,
+      price: A.price[a]! + A.price[b]!,
+    });
   }
   found.sort((x, y) => y.rank - x.rank || y.headroom - x.headroom || x.price - y.price);
   return { pairs: found.map((p) => [A.ids[p.a]!, A.ids[p.b]!]), facets: counts };
@@ -366,7 +377,13 @@ export function floorSqueezing(A: DetectorArrays, g: FloorSqueezingGoal, k = 20)
 }
 
 /** Text: every word a substring of the listing's lower-cased text, newest first. */
-export function floorText(haystacks: readonly string[], approvedAt: Float64Array, masks: Int32Array, terms: readonly string[], k = 20): { hits: number[]; facets: Int32Array } {
+export function floorText(
+  haystacks: readonly string[],
+  approvedAt: Float64Array,
+  masks: Int32Array,
+  terms: readonly string[],
+  k = 20,
+): { hits: number[]; facets: Int32Array } {
   const counts = new Int32Array(FACETS * VALUES);
   const hits: number[] = [];
   for (let i = 0; i < haystacks.length; i++) {

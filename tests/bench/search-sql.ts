@@ -15,7 +15,10 @@ async function facets(where: string, args: Record<string, number | string>) {
   return Promise.all([
     c.execute({ sql: `SELECT count(*) AS n FROM listings l WHERE ${where}`, args }),
     c.execute({ sql: `SELECT l.category AS v, count(*) AS n FROM listings l WHERE ${where} GROUP BY 1`, args }),
-    c.execute({ sql: `SELECT json_extract(l.published, '$.condition') AS v, count(*) AS n FROM listings l WHERE ${where} GROUP BY 1`, args }),
+    c.execute({
+      sql: `SELECT json_extract(l.published, '$.condition') AS v, count(*) AS n FROM listings l WHERE ${where} GROUP BY 1`,
+      args,
+    }),
   ]);
 }
 
@@ -33,8 +36,14 @@ export async function sqlText(terms: readonly string[]) {
   const c = getClient();
   const counts = await Promise.all([
     c.execute({ sql: `SELECT count(*) AS n FROM listings l JOIN labs b ON b.id = l.lab_id WHERE ${where}`, args }),
-    c.execute({ sql: `SELECT l.category AS v, count(*) AS n FROM listings l JOIN labs b ON b.id = l.lab_id WHERE ${where} GROUP BY 1`, args }),
-    c.execute({ sql: `SELECT json_extract(l.published, '$.condition') AS v, count(*) AS n FROM listings l JOIN labs b ON b.id = l.lab_id WHERE ${where} GROUP BY 1`, args }),
+    c.execute({
+      sql: `SELECT l.category AS v, count(*) AS n FROM listings l JOIN labs b ON b.id = l.lab_id WHERE ${where} GROUP BY 1`,
+      args,
+    }),
+    c.execute({
+      sql: `SELECT json_extract(l.published, '$.condition') AS v, count(*) AS n FROM listings l JOIN labs b ON b.id = l.lab_id WHERE ${where} GROUP BY 1`,
+      args,
+    }),
   ]);
   return { ids: page.rows.map((r) => r.id as string), total: Number(counts[0].rows[0]?.n ?? 0) };
 }
@@ -46,7 +55,8 @@ const MIRROR_COLUMNS = `
   min(${J('transmissionPpm.value')} + coalesce(${J('transmissionPpm.tol')}, 0) + ${J('lossPpm.value')} + coalesce(${J('lossPpm.tol')}, 0), 999999) * 1e-6 AS w1,
   CASE WHEN ${J('rocMm')} IS NULL THEN 1.0 ELSE 1.0 - :L / (${J('rocMm')} / 1000.0) END AS g`;
 const IN_BAND = `l.category = 'cavity-mirror' AND ${J('bandMinNm')} <= :nm AND ${J('bandMaxNm')} >= :nm AND ${J('aoiDeg')} <= 5`;
-const FINESSE = (a: string, b: string) => `pi() * power((1 - ${a}) * (1 - ${b}) * (1 - :x), 0.25) / (1 - sqrt((1 - ${a}) * (1 - ${b}) * (1 - :x)))`;
+const FINESSE = (a: string, b: string) =>
+  `pi() * power((1 - ${a}) * (1 - ${b}) * (1 - :x), 0.25) / (1 - sqrt((1 - ${a}) * (1 - ${b}) * (1 - :x)))`;
 
 export async function sqlPair(g: FloorCavityGoal) {
   const args = { nm: g.nm, L: g.lengthM, x: g.extraLoss, goal: g.finesse };
@@ -74,7 +84,15 @@ export async function sqlTwoListings(g: FloorCavityGoal) {
 
 export async function sqlSqueezing(g: FloorSqueezingGoal) {
   const perQe = (1.602176634e-19 * g.nm * 1e-9) / (6.62607015e-34 * 299_792_458);
-  const args = { nm: g.nm, sb: g.sidebandHz, lo: g.loPowerW, chain: g.chain, k: g.k, target: g.targetDb, q: 2 * 1.602176634e-19 * perQe * g.loPowerW };
+  const args = {
+    nm: g.nm,
+    sb: g.sidebandHz,
+    lo: g.loPowerW,
+    chain: g.chain,
+    k: g.k,
+    target: g.targetDb,
+    q: 2 * 1.602176634e-19 * perQe * g.loPowerW,
+  };
   const page = await getClient().execute({
     sql: `WITH d AS (SELECT l.id AS id, l.price_cents AS price,
         ${J('quantumEfficiency.value')} AS qe, max(0, ${J('quantumEfficiency.value')} - coalesce(${J('quantumEfficiency.tol')}, 0)) AS ql,

@@ -42,11 +42,15 @@ test('finesse 100 000 at 780 nm in 50 mm: a demo mirror pair that reaches it ran
   await expect(first.getByTestId('fit-figure')).toBeVisible();
 });
 
-test('the buyer’s goal search: out of band is not a fit, the query lives in the address, a saved search mails one new fit', async ({ page }) => {
+test('the buyer’s goal search: out of band is not a fit, the query lives in the address, a saved search mails one new fit', async ({
+  page,
+}) => {
   await askForFinesse(page);
   await expect(page.getByTestId('headline')).toContainText('Each mirror of the pair: T + loss at most');
 
-  const oob = page.getByTestId('result').filter({ has: page.getByRole('link', { name: '852 nm low-loss mirror, ROC 50 mm', exact: true }) });
+  const oob = page
+    .getByTestId('result')
+    .filter({ has: page.getByRole('link', { name: '852 nm low-loss mirror, ROC 50 mm', exact: true }) });
   await expect(oob).toHaveAttribute('data-verdict', 'does-not-fit');
   await expect(oob.getByTestId('headroom-chip')).toHaveText(/out of band/);
   await expect(oob).toContainText('out of band: coating band 830–875 nm does not cover 780 nm');
@@ -94,7 +98,17 @@ test('the buyer’s goal search: out of band is not a fit, the query lives in th
       priceCents: 210_000,
       currency: 'EUR',
       shipsTo: ['EU', 'UK', 'US', 'CA'],
-      specs: { diameterMm: 7.75, substrate: 'fused silica', rocMm: 100, designWavelengthNm: 780, bandMinNm: 760, bandMaxNm: 800, transmissionPpm: { value: 2, tol: 0.4 }, lossPpm: { value: 1, tol: 0.3 }, aoiDeg: 0 },
+      specs: {
+        diameterMm: 7.75,
+        substrate: 'fused silica',
+        rocMm: 100,
+        designWavelengthNm: 780,
+        bandMinNm: 760,
+        bandMaxNm: 800,
+        transmissionPpm: { value: 2, tol: 0.4 },
+        lossPpm: { value: 1, tol: 0.3 },
+        aoiDeg: 0,
+      },
     },
   });
   expect(created.status()).toBe(201);
@@ -115,4 +129,18 @@ test('the buyer’s goal search: out of band is not a fit, the query lives in th
   await expect(first.getByTestId('headroom-chip')).toHaveText(/fits · headroom \+\d/);
   await seller.dispose();
   await moderator.dispose();
+});
+
+test('the header’s search field lands on the search page with its words, and the cards link to the listings', async ({ page }) => {
+  await page.goto('/');
+  await page.getByRole('searchbox', { name: 'Search listings' }).fill('1550 supermirror');
+  await page.getByRole('searchbox', { name: 'Search listings' }).press('Enter');
+  await expect(page).toHaveURL(/\/search\?q=1550\+supermirror$/);
+  const cards = page.getByTestId('listing-card');
+  await expect(cards).toHaveCount(2);
+  await expect(cards.first()).toContainText(/1550 nm supermirror/);
+  await expect(page.getByRole('search', { name: 'Goal search' }).getByLabel('Words')).toHaveValue('1550 supermirror');
+  await cards.first().click();
+  await expect(page).toHaveURL(/\/listings\/[^/]+$/);
+  await expect(page.getByTestId('listing-title')).toContainText('1550 nm supermirror');
 });

@@ -79,33 +79,37 @@ describe('security headers', () => {
     ['/cart', true, true],
     ['/account', true, true],
   ];
-  test.each(pages)('the CSP of %s allows only its own scripts and styles: no unsafe-inline, every inline one hashed', async (path, signIn, islands) => {
-    const r = await (signIn ? signedIn : new Client(app.origin)).get(path === 'a listing page' ? listingPath : path);
-    expect(r.status).toBe(200);
-    const html = await r.text();
-    const csp = directives(r.headers.get('content-security-policy'));
-    const storage = new URL(app.env.S3_ENDPOINT!).origin;
-    expect(csp.get('default-src')).toEqual(["'self'"]);
-    expect(csp.get('object-src')).toEqual(["'none'"]);
-    expect(csp.get('base-uri')).toEqual(["'self'"]);
-    expect(csp.get('form-action')).toEqual(["'self'"]);
-    expect(csp.get('img-src')).toEqual(["'self'", 'data:', 'blob:', storage]);
-    expect(csp.get('connect-src')).toEqual(["'self'", storage]);
-    for (const name of ['script-src', 'style-src']) {
-      const sources = csp.get(name)!;
-      expect(sources[0]).toBe("'self'");
-      for (const s of sources.slice(1)) expect(s, `${name} source`).toMatch(/^'sha256-[A-Za-z0-9+/]+=*'$/);
-    }
-    const inlineScripts = [...html.matchAll(/<script(?![^>]*\bsrc=)[^>]*>([\s\S]*?)<\/script>/g)].map((m) => m[1]!);
-    if (islands) expect(inlineScripts.length, 'islands hydrate through inline scripts').toBeGreaterThan(0);
-    for (const s of inlineScripts) expect(csp.get('script-src'), 'hash of an inline script').toContain(sha256(s));
-    for (const [, s] of html.matchAll(/<style[^>]*>([\s\S]*?)<\/style>/g)) expect(csp.get('style-src'), 'hash of an inline style').toContain(sha256(s!));
-    // Server-rendered style attributes are allowed; inline event handlers (script attributes) are not.
-    expect(csp.get('style-src-attr')).toEqual(["'unsafe-inline'"]);
-    expect(csp.has('script-src-attr')).toBe(false);
-    expect(csp.has('script-src-elem')).toBe(false);
-    expect(csp.has('style-src-elem')).toBe(false);
-  });
+  test.each(pages)(
+    'the CSP of %s allows only its own scripts and styles: no unsafe-inline, every inline one hashed',
+    async (path, signIn, islands) => {
+      const r = await (signIn ? signedIn : new Client(app.origin)).get(path === 'a listing page' ? listingPath : path);
+      expect(r.status).toBe(200);
+      const html = await r.text();
+      const csp = directives(r.headers.get('content-security-policy'));
+      const storage = new URL(app.env.S3_ENDPOINT!).origin;
+      expect(csp.get('default-src')).toEqual(["'self'"]);
+      expect(csp.get('object-src')).toEqual(["'none'"]);
+      expect(csp.get('base-uri')).toEqual(["'self'"]);
+      expect(csp.get('form-action')).toEqual(["'self'"]);
+      expect(csp.get('img-src')).toEqual(["'self'", 'data:', 'blob:', storage]);
+      expect(csp.get('connect-src')).toEqual(["'self'", storage]);
+      for (const name of ['script-src', 'style-src']) {
+        const sources = csp.get(name)!;
+        expect(sources[0]).toBe("'self'");
+        for (const s of sources.slice(1)) expect(s, `${name} source`).toMatch(/^'sha256-[A-Za-z0-9+/]+=*'$/);
+      }
+      const inlineScripts = [...html.matchAll(/<script(?![^>]*\bsrc=)[^>]*>([\s\S]*?)<\/script>/g)].map((m) => m[1]!);
+      if (islands) expect(inlineScripts.length, 'islands hydrate through inline scripts').toBeGreaterThan(0);
+      for (const s of inlineScripts) expect(csp.get('script-src'), 'hash of an inline script').toContain(sha256(s));
+      for (const [, s] of html.matchAll(/<style[^>]*>([\s\S]*?)<\/style>/g))
+        expect(csp.get('style-src'), 'hash of an inline style').toContain(sha256(s!));
+      // Server-rendered style attributes are allowed; inline event handlers (script attributes) are not.
+      expect(csp.get('style-src-attr')).toEqual(["'unsafe-inline'"]);
+      expect(csp.has('script-src-attr')).toBe(false);
+      expect(csp.has('script-src-elem')).toBe(false);
+      expect(csp.has('style-src-elem')).toBe(false);
+    },
+  );
 
   test('answers that are not pages allow nothing to load', async () => {
     const csp = directives((await signedIn.get('/api/me')).headers.get('content-security-policy'));
@@ -120,27 +124,33 @@ describe('cross-origin form posts', () => {
     ['multipart/form-data; boundary=x', '--x\r\nContent-Disposition: form-data; name="a"\r\n\r\n1\r\n--x--\r\n'],
     ['text/plain', 'a=1'],
   ];
-  test.each(['/sign-out', '/api/auth/sign-out'])('a post to %s from another site is refused, is no HTML page, and the session lives on', async (path) => {
-    const c = new Client(app.origin);
-    await c.signIn('seller@demo.lightyard.example', PASSWORD);
-    for (const [type, body] of forms) {
-      const r = await c.request('POST', path, body, { origin: 'https://evil.example', 'content-type': type });
-      expect(r.status, type).toBe(403);
-      expect(r.headers.get('content-type') ?? '').not.toMatch(/html/);
-      expect(r.headers.getSetCookie()).toEqual([]);
-      expect((await c.get('/api/me')).status).toBe(200);
-    }
-    // the same post from the app's own origin does sign out, so the refusal above is the origin check's
-    const own = await c.request('POST', path, 'a=1', { 'content-type': 'application/x-www-form-urlencoded' });
-    expect(own.status).toBeLessThan(400);
-    expect((await c.get('/api/me')).status).toBe(401);
-  });
+  test.each(['/sign-out', '/api/auth/sign-out'])(
+    'a post to %s from another site is refused, is no HTML page, and the session lives on',
+    async (path) => {
+      const c = new Client(app.origin);
+      await c.signIn('seller@demo.lightyard.example', PASSWORD);
+      for (const [type, body] of forms) {
+        const r = await c.request('POST', path, body, { origin: 'https://evil.example', 'content-type': type });
+        expect(r.status, type).toBe(403);
+        expect(r.headers.get('content-type') ?? '').not.toMatch(/html/);
+        expect(r.headers.getSetCookie()).toEqual([]);
+        expect((await c.get('/api/me')).status).toBe(200);
+      }
+      // the same post from the app's own origin does sign out, so the refusal above is the origin check's
+      const own = await c.request('POST', path, 'a=1', { 'content-type': 'application/x-www-form-urlencoded' });
+      expect(own.status).toBeLessThan(400);
+      expect((await c.get('/api/me')).status).toBe(401);
+    },
+  );
 
   test('a cross-site password change is refused and the old password still signs in', async () => {
     const c = new Client(app.origin);
     await c.signIn('moderator@demo.lightyard.example', PASSWORD);
     const body = new URLSearchParams({ currentPassword: PASSWORD, newPassword: 'taken-over-password' }).toString();
-    const r = await c.request('POST', '/api/auth/change-password', body, { origin: 'https://evil.example', 'content-type': 'application/x-www-form-urlencoded' });
+    const r = await c.request('POST', '/api/auth/change-password', body, {
+      origin: 'https://evil.example',
+      'content-type': 'application/x-www-form-urlencoded',
+    });
     expect(r.status).toBe(403);
     expect((await new Client(app.origin).signIn('moderator@demo.lightyard.example', PASSWORD)).status).toBe(200);
   });
@@ -149,7 +159,11 @@ describe('cross-origin form posts', () => {
 describe('with an https origin', () => {
   test('pages and API answers carry HSTS as well as the other headers', async () => {
     const c = new Client(httpsApp.origin);
-    for (const [path, status] of [['/', 200], ['/api/me', 401], ['/no-such-page', 404]] as const) {
+    for (const [path, status] of [
+      ['/', 200],
+      ['/api/me', 401],
+      ['/no-such-page', 404],
+    ] as const) {
       const r = await c.get(path);
       expect(r.status, path).toBe(status);
       expectCommonHeaders(r, true);
@@ -172,7 +186,9 @@ describe('with an https origin', () => {
   });
 
   test('over http the same cookie is HttpOnly and SameSite=Lax but not Secure', async () => {
-    const cookie = (await new Client(app.origin).signIn('buyer@demo.lightyard.example', PASSWORD)).headers.getSetCookie().find((s) => s.startsWith('ly_session='))!;
+    const cookie = (await new Client(app.origin).signIn('buyer@demo.lightyard.example', PASSWORD)).headers
+      .getSetCookie()
+      .find((s) => s.startsWith('ly_session='))!;
     expect(cookie).toMatch(/;\s*HttpOnly/i);
     expect(cookie).toMatch(/;\s*SameSite=Lax/i);
     expect(cookie).not.toMatch(/Secure/i);

@@ -87,9 +87,23 @@ function expectRelative(actual: number | null, expected: number, rel = 1e-6) {
   expect(Math.abs((actual as number) - expected) / expected).toBeLessThan(rel);
 }
 
-type Fit = { pass: boolean; verdict: string; figure: number | null; worst: number | null; headroom: number | null; unit: string; reasons: string[]; plot: unknown };
+type Fit = {
+  pass: boolean;
+  verdict: string;
+  figure: number | null;
+  worst: number | null;
+  headroom: number | null;
+  unit: string;
+  reasons: string[];
+  plot: unknown;
+};
 type Result = { listing: { id: string; title: string; priceCents: number; labName: string }; partner?: { id: string }; fit: Fit };
-type GoalResponse = { results: Result[]; total: number; facets: Record<string, { value: string; count: number }[]>; headline: { label: string; value: string }[] };
+type GoalResponse = {
+  results: Result[];
+  total: number;
+  facets: Record<string, { value: string; count: number }[]>;
+  headline: { label: string; value: string }[];
+};
 
 async function goal(body: unknown, client: Client = anon): Promise<GoalResponse> {
   const r = await client.post('/api/search/goal', body);
@@ -97,7 +111,10 @@ async function goal(body: unknown, client: Client = anon): Promise<GoalResponse>
   return (await r.json()) as GoalResponse;
 }
 
-const cavity = (extra: Record<string, unknown>) => ({ mode: 'cavity', goal: { wavelengthNm: 1397, lengthMm: 50, finesse: 200_000, configuration: 'pair', ...extra } });
+const cavity = (extra: Record<string, unknown>) => ({
+  mode: 'cavity',
+  goal: { wavelengthNm: 1397, lengthMm: 50, finesse: 200_000, configuration: 'pair', ...extra },
+});
 
 describe('cavity goals against mirrors with known T and loss', () => {
   const ids: Record<string, string> = {};
@@ -124,7 +141,9 @@ describe('cavity goals against mirrors with known T and loss', () => {
     expect(res.results[0]!.listing.id).toBe(ids.b);
     expect(res.results[1]!.listing.id).toBe(ids.a);
     // every demo mirror with two units is out of band at 1397 nm and ranks after both
-    expect(res.results.slice(2).every((r) => r.fit.verdict === 'does-not-fit' && r.fit.reasons.some((x) => x.includes('out of band')))).toBe(true);
+    expect(
+      res.results.slice(2).every((r) => r.fit.verdict === 'does-not-fit' && r.fit.reasons.some((x) => x.includes('out of band'))),
+    ).toBe(true);
     expect(res.results.length).toBeGreaterThan(4);
     expect(res.total).toBe(res.results.length);
     expect(res.headline[0]!.value).toContain('200');
@@ -160,7 +179,11 @@ describe('cavity goals against mirrors with known T and loss', () => {
   test('two listings: best pairs first, each figure form 1.3 of both mirrors', async () => {
     const res = await goal(cavity({ configuration: 'two-listings', finesse: 100_000 }));
     const ours = res.results.filter((r) => [ids.a, ids.b, ids.c].includes(r.listing.id));
-    expect(ours.map((r) => new Set([r.listing.id, r.partner?.id]))).toEqual([new Set([ids.b, ids.a]), new Set([ids.b, ids.c]), new Set([ids.a, ids.c])]);
+    expect(ours.map((r) => new Set([r.listing.id, r.partner?.id]))).toEqual([
+      new Set([ids.b, ids.a]),
+      new Set([ids.b, ids.c]),
+      new Set([ids.a, ids.c]),
+    ]);
     expectRelative(ours[0]!.fit.figure, finesse13(5.5, 15));
     expectRelative(ours[0]!.fit.worst, finesse13(6.5, 18));
     expectRelative(ours[2]!.fit.worst, finesse13(18, 55));
@@ -169,8 +192,28 @@ describe('cavity goals against mirrors with known T and loss', () => {
   });
 
   test('equal fits rank the cheaper first', async () => {
-    const dear = await liveMirror({ name: 'Dear', t: 5, tTol: 1, loss: 2, lossTol: 0.5, rocMm: 500, quantity: 2, priceCents: 200_000, nm: 1300 });
-    const cheap = await liveMirror({ name: 'Cheap', t: 5, tTol: 1, loss: 2, lossTol: 0.5, rocMm: 500, quantity: 2, priceCents: 100_000, nm: 1300 });
+    const dear = await liveMirror({
+      name: 'Dear',
+      t: 5,
+      tTol: 1,
+      loss: 2,
+      lossTol: 0.5,
+      rocMm: 500,
+      quantity: 2,
+      priceCents: 200_000,
+      nm: 1300,
+    });
+    const cheap = await liveMirror({
+      name: 'Cheap',
+      t: 5,
+      tTol: 1,
+      loss: 2,
+      lossTol: 0.5,
+      rocMm: 500,
+      quantity: 2,
+      priceCents: 100_000,
+      nm: 1300,
+    });
     const res = await goal(cavity({ wavelengthNm: 1300 }));
     expect(res.results.slice(0, 2).map((r) => r.listing.id)).toEqual([cheap, dear]);
     expect(res.results[0]!.fit.headroom).toBe(res.results[1]!.fit.headroom);
@@ -202,7 +245,17 @@ describe('other goal modes', () => {
   test('squeezing ranks the balanced detectors that reach the goal first, with the required QE as headline', async () => {
     const res = await goal({
       mode: 'squeezing',
-      goal: { wavelengthNm: 1550, targetDb: 6, sidebandHz: 5e6, source: { kind: 'opo', pumpParameter: 0.8, linewidthHz: 60e6 }, escapeEfficiency: 0.98, propagationEfficiency: 0.98, visibility: 0.99, loPowerW: 5e-3, phaseNoiseRad: 0.01 },
+      goal: {
+        wavelengthNm: 1550,
+        targetDb: 6,
+        sidebandHz: 5e6,
+        source: { kind: 'opo', pumpParameter: 0.8, linewidthHz: 60e6 },
+        escapeEfficiency: 0.98,
+        propagationEfficiency: 0.98,
+        visibility: 0.99,
+        loPowerW: 5e-3,
+        phaseNoiseRad: 0.01,
+      },
     });
     expect(res.results[0]!.fit.verdict).toBe('fits');
     expect(res.results[0]!.fit.unit).toBe('dB');
@@ -212,21 +265,38 @@ describe('other goal modes', () => {
     expect([...headrooms].sort((x, y) => y - x)).toEqual(headrooms);
     expect(res.results.some((r) => r.fit.reasons.some((x) => x.startsWith('no quantum efficiency at 1550 nm')))).toBe(true);
     expect(res.headline[0]!.label).toContain('Quantum efficiency needed');
-    expect(res.facets.category!.filter((c) => c.count > 0).map((c) => c.value).sort()).toEqual(['balanced-detector', 'photodiode']);
+    expect(
+      res.facets
+        .category!.filter((c) => c.count > 0)
+        .map((c) => c.value)
+        .sort(),
+    ).toEqual(['balanced-detector', 'photodiode']);
   });
 
   test('counting and laser goals judge their categories', async () => {
-    const ct = await goal({ mode: 'counting', goal: { wavelengthNm: 1550, target: { kind: 'bell', test: 'eberhard' }, opticalEfficiency: 0.9 } });
+    const ct = await goal({
+      mode: 'counting',
+      goal: { wavelengthNm: 1550, target: { kind: 'bell', test: 'eberhard' }, opticalEfficiency: 0.9 },
+    });
     expect(ct.results[0]!.listing.title).toContain('nanowire');
     expect(ct.results[0]!.fit.verdict).toBe('fits');
     expect(ct.total).toBe(6);
-    const la = await goal({ mode: 'laser', goal: { wavelength: { kind: 'fixed', nm: 780 }, coherence: { kind: 'linewidth', maxHz: 1e6 }, minPowerW: 0.01 } });
-    expect(la.results.filter((r) => r.fit.pass).map((r) => r.listing.title)).toEqual(expect.arrayContaining(['780 nm external-cavity diode laser, 80 mW']));
+    const la = await goal({
+      mode: 'laser',
+      goal: { wavelength: { kind: 'fixed', nm: 780 }, coherence: { kind: 'linewidth', maxHz: 1e6 }, minPowerW: 0.01 },
+    });
+    expect(la.results.filter((r) => r.fit.pass).map((r) => r.listing.title)).toEqual(
+      expect.arrayContaining(['780 nm external-cavity diode laser, 80 mW']),
+    );
     expect(la.results.find((r) => r.listing.title.startsWith('852 nm DBR'))!.fit.reasons[0]).toContain('does not reach 780 nm');
   });
 });
 
-type TextResponse = { results: { listing: { id: string; title: string; category: string; condition: string } }[]; total: number; facets: Record<string, { value: string; count: number }[]> };
+type TextResponse = {
+  results: { listing: { id: string; title: string; category: string; condition: string } }[];
+  total: number;
+  facets: Record<string, { value: string; count: number }[]>;
+};
 
 async function text(qs: string): Promise<TextResponse> {
   const r = await anon.get(`/api/search?${qs}`);
@@ -242,7 +312,9 @@ describe('text search and facets', () => {
     expect(supermirror.total).toBeGreaterThan(0);
     expect(supermirror.results.every((r) => /supermirror/i.test(r.listing.title))).toBe(true);
     const both = await text('q=1550%20supermirror');
-    expect(both.results.map((r) => r.listing.title).sort()).toEqual(['1550 nm supermirror, ROC 250 mm', 'Matched pair of 1550 nm supermirrors, ROC 50 mm'].sort());
+    expect(both.results.map((r) => r.listing.title).sort()).toEqual(
+      ['1550 nm supermirror, ROC 250 mm', 'Matched pair of 1550 nm supermirrors, ROC 50 mm'].sort(),
+    );
     const lab = await text('q=Brightcount');
     expect(lab.total).toBeGreaterThan(5);
     expect((await text('q=nanowire%20ppktp')).total).toBe(0);
@@ -304,7 +376,10 @@ function freePort(): Promise<number> {
 async function secondInstance(): Promise<{ client: Client; stop: () => Promise<void> }> {
   const port = await freePort();
   const origin = `http://127.0.0.1:${port}`;
-  const child: ChildProcess = spawn(process.execPath, ['dist/server/entry.mjs'], { env: { ...process.env, ...app.env, PORT: String(port) }, stdio: 'ignore' });
+  const child: ChildProcess = spawn(process.execPath, ['dist/server/entry.mjs'], {
+    env: { ...process.env, ...app.env, PORT: String(port) },
+    stdio: 'ignore',
+  });
   for (let i = 0; i < 300; i++) {
     try {
       if ((await fetch(`${origin}/cautions`)).ok) break;
@@ -339,10 +414,20 @@ describe('the index follows the database without a restart', () => {
       expect(await find(other.client)).toBe(0);
       const id = await liveMirror({ name: 'Marchantia', t: 10, tTol: 1, loss: 2, lossTol: 0.5, rocMm: 500, quantity: 2 });
       expect(await find(anon)).toBe(1);
-      expect(await eventually(() => find(other.client), (n) => n === 1)).toBe(1);
+      expect(
+        await eventually(
+          () => find(other.client),
+          (n) => n === 1,
+        ),
+      ).toBe(1);
       expect((await seller.del(`/api/listings/${id}`)).status).toBe(200);
       expect(await find(anon)).toBe(0);
-      expect(await eventually(() => find(other.client), (n) => n === 0)).toBe(0);
+      expect(
+        await eventually(
+          () => find(other.client),
+          (n) => n === 0,
+        ),
+      ).toBe(0);
     } finally {
       await other.stop();
     }
@@ -356,7 +441,11 @@ describe('saved searches', () => {
     expect((await anon.post('/api/saved-searches', { name: 'x', search: request, url: '/search' })).status).toBe(401);
     const bad = await buyer.post('/api/saved-searches', { name: '', search: request, url: '/elsewhere' });
     expect(bad.status).toBe(400);
-    const created = await buyer.post('/api/saved-searches', { name: 'Finesse 300 000 at 1450 nm', search: request, url: '/search?mode=cavity&wl=1450&finesse=300000&len=50&config=pair' });
+    const created = await buyer.post('/api/saved-searches', {
+      name: 'Finesse 300 000 at 1450 nm',
+      search: request,
+      url: '/search?mode=cavity&wl=1450&finesse=300000&len=50&config=pair',
+    });
     expect(created.status).toBe(201);
     const { savedSearch } = await created.json();
     expect(savedSearch.active).toBe(true);
@@ -381,7 +470,10 @@ describe('saved searches', () => {
     const { getDb } = await import('../../src/server/db/client');
     const { savedSearches } = await import('../../src/server/db/schema');
     const { eq } = await import('drizzle-orm');
-    await getDb().update(savedSearches).set({ lastNotifiedAt: new Date(Date.now() - 25 * 3600_000) }).where(eq(savedSearches.id, savedSearch.id));
+    await getDb()
+      .update(savedSearches)
+      .set({ lastNotifiedAt: new Date(Date.now() - 25 * 3600_000) })
+      .where(eq(savedSearches.id, savedSearch.id));
     await liveMirror({ name: 'Ultra Three', t: 2.5, tTol: 0.2, loss: 1, lossTol: 0.2, rocMm: 500, quantity: 2, nm: 1450 });
     const next = await waitForMail(app.mailDir, BUYER, /Quillwort Ultra Three/);
     expect(next.text).toContain('Also fitting since the last e-mail');
@@ -403,7 +495,9 @@ describe('saved searches', () => {
   });
 
   test('a buyer sees and deletes only their own saved searches', async () => {
-    const mine = await (await buyer.post('/api/saved-searches', { name: 'Lasers', search: { mode: 'text', q: 'laser' }, url: '/search?q=laser' })).json();
+    const mine = await (
+      await buyer.post('/api/saved-searches', { name: 'Lasers', search: { mode: 'text', q: 'laser' }, url: '/search?q=laser' })
+    ).json();
     const other = await as('seller2');
     expect((await (await other.get('/api/saved-searches')).json()).savedSearches).toEqual([]);
     expect((await other.del(`/api/saved-searches/${mine.savedSearch.id}`)).status).toBe(404);

@@ -6,16 +6,16 @@
 import fc from 'fast-check';
 
 /** A raw JSON token, written as is: `1e400`, a 40-digit integer. */
-export class RawJson {
+class RawJson {
   constructor(readonly text: string) {}
 }
 /** An object as a list of entries, so keys like `__proto__` and duplicates survive into the text. */
-export class Entries {
+class Entries {
   constructor(readonly entries: [string, Json][]) {}
 }
 export type Json = null | boolean | number | string | RawJson | Entries | Json[] | { [key: string]: Json };
 
-export interface Sent {
+interface Sent {
   text: string;
   /** Every string in the request (keys and values): an answer may quote them back without leaking anything. */
   strings: string[];
@@ -36,7 +36,7 @@ export function serialize(value: Json, strings: string[] = []): Sent {
   return { text: write(value), strings };
 }
 
-export const FRAGMENTS = [
+const FRAGMENTS = [
   "' OR '1'='1",
   "'; DROP TABLE users; --",
   '" OR ""="',
@@ -87,12 +87,12 @@ export const FRAGMENTS = [
   ' BUYER@DEMO.LIGHTYARD.EXAMPLE ',
 ] as const;
 
-export const POLLUTING_KEYS = ['__proto__', 'constructor', 'prototype', '__defineGetter__', 'toString', 'valueOf'] as const;
+const POLLUTING_KEYS = ['__proto__', 'constructor', 'prototype', '__defineGetter__', 'toString', 'valueOf'] as const;
 
 const fragment = fc.constantFrom(...FRAGMENTS);
 
 /** Strings up to `longest` characters: attack fragments, unicode, control characters, long runs of multi-byte text. */
-export function hostileText(longest: number): fc.Arbitrary<string> {
+function hostileText(longest: number): fc.Arbitrary<string> {
   return fc.oneof(
     { weight: 4, arbitrary: fragment.filter((s) => s.length <= longest) },
     { weight: 2, arbitrary: fc.string({ unit: 'grapheme', maxLength: Math.min(40, longest) }) },
@@ -106,14 +106,14 @@ export function hostileText(longest: number): fc.Arbitrary<string> {
 }
 
 /** For bodies: long enough to pass any field's maximum, short enough that a body stays near the 64 KiB limit. */
-export const hostileString = hostileText(20_000);
+const hostileString = hostileText(20_000);
 /**
  * For URLs and headers, which Node's HTTP server caps at 16 KiB in all (431 before the app sees them;
  * the body-limit tests check that separately).
  */
 export const shortHostileString = hostileText(200);
 
-export const hostileNumber: fc.Arbitrary<Json> = fc.oneof(
+const hostileNumber: fc.Arbitrary<Json> = fc.oneof(
   fc.constantFrom<Json>(0, -0, -1, 1, 0.5, 5e-324, 2 ** 31, 2 ** 53, 2 ** 53 + 2, 1e21, 1e308, -1e308, Number.MAX_SAFE_INTEGER),
   fc.integer().map<Json>((n) => n),
   fc.double({ noNaN: true, noDefaultInfinity: true }).map<Json>((n) => n),
@@ -122,8 +122,8 @@ export const hostileNumber: fc.Arbitrary<Json> = fc.oneof(
     .map((t) => new RawJson(t)),
 );
 
-/** Any JSON value, wrongly typed for whatever field it lands in, nested up to `depth`. */
-export const hostileValue: fc.Arbitrary<Json> = fc.letrec<{ value: Json }>((tie) => ({
+/** Any JSON value, wrongly typed for whatever field it lands in, nested a few levels. */
+const hostileValue: fc.Arbitrary<Json> = fc.letrec<{ value: Json }>((tie) => ({
   value: fc.oneof(
     { depthSize: 'small', withCrossShrink: true },
     { weight: 5, arbitrary: hostileString },
@@ -145,7 +145,7 @@ export const deepNesting: fc.Arbitrary<Json> = fc
   .map(([n, arrays]) => new RawJson(arrays ? `${'['.repeat(n)}${']'.repeat(n)}` : `${'{"a":'.repeat(n)}1${'}'.repeat(n)}`));
 
 /** Keys that try to reach an object's prototype, with values that would matter if they did. */
-export const pollution: fc.Arbitrary<[string, Json][]> = fc.subarray<[string, Json]>(
+const pollution: fc.Arbitrary<[string, Json][]> = fc.subarray<[string, Json]>(
   [
     [
       '__proto__',
@@ -238,11 +238,11 @@ export function segment(real: readonly string[]): fc.Arbitrary<{ text: string; r
 /** Percent-encodes one path segment; a lone surrogate has no UTF-8 form, so it is dropped rather than thrown on. */
 export const encodeSegment = (raw: string) => encodeURIComponent(raw.replace(/[\uD800-\uDFFF]/g, ''));
 
-// Stack frames, driver and ORM errors, and SQL. "select … from" is only judged when the request did not
-// itself contain those words: search answers quote the words they were asked for back, in pieces.
+// Stack frames, driver and ORM errors, and SQL as the ORM writes it, with quoted table names (raw or
+// JSON-escaped): the attack fragments above, which other cases store in names and listings, quote none.
 const STACK = /\bat [^\n"]*\.(ts|js|mjs|cjs):\d+/;
 const DRIVER = /SQLITE_|SqliteError|LibsqlError|Failed query|no such (table|column)|syntax error|drizzle/i;
-const SQL = /select .* from/i;
+const SQL = /\bselect\b[^]{0,300}?\bfrom\s+\\?["`]\w+\\?["`]/i;
 
 function withoutEchoes(text: string, strings: readonly string[]): string {
   const forms = new Set<string>();
@@ -264,9 +264,8 @@ function withoutEchoes(text: string, strings: readonly string[]): string {
  */
 export function judge(res: Response, text: string, url: string, sentStrings: readonly string[]): string | null {
   if (res.status >= 500) return `status ${res.status}`;
-  const sentSql = sentStrings.some((s) => /select/i.test(s)) && sentStrings.some((s) => /from/i.test(s));
   const isApi = new URL(url).pathname.startsWith('/api/');
-  for (const leak of [STACK, DRIVER, ...(isApi && !sentSql ? [SQL] : [])]) {
+  for (const leak of [STACK, DRIVER, SQL]) {
     // the echo-free text is only worth building when the raw answer looks suspicious
     const m = leak.test(text) ? withoutEchoes(text, sentStrings).match(leak) : null;
     if (m) return `leaks ${JSON.stringify(m[0].slice(0, 120))}`;

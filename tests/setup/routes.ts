@@ -5,7 +5,7 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { join, relative, sep } from 'node:path';
 
-export const HTTP_METHODS = ['GET', 'POST', 'PUT', 'PATCH', 'DELETE', 'ALL'] as const;
+const HTTP_METHODS = ['GET', 'POST', 'PUT', 'PATCH', 'DELETE', 'ALL'] as const;
 export type HttpMethod = (typeof HTTP_METHODS)[number];
 
 export interface RouteHandler {
@@ -40,13 +40,12 @@ function walk(dir: string): string[] {
   });
 }
 
-export function patternOf(file: string, root = PAGES_DIR): string {
+function patternOf(file: string, root: string): string {
   const rel = relative(root, file).split(sep).join('/').replace(ROUTE_FILE, '');
-  const path = `/${rel}`.replace(/\/index$/, '') || '/';
-  return path;
+  return `/${rel}`.replace(/\/index$/, '') || '/';
 }
 
-/** The text of each exported handler: from its `export` to the next top-level `export` (or the end). */
+/** The exported handlers, each judged by its text: from its `export` to the next top-level `export` (or the end). */
 function handlersOf(source: string): RouteHandler[] {
   const exportAt = /^export\s+(?:const|let|var|async\s+function|function)\s+(\w+)/gm;
   const starts = [...source.matchAll(exportAt)].map((m) => ({ name: m[1]!, at: m.index! }));

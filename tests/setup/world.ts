@@ -295,6 +295,10 @@ export async function buildWorld(app: TestApp): Promise<World> {
   };
   const [order] = await paidOrders(1);
   const orderPool: string[] = [];
+  const paidOrder = async () => {
+    if (!orderPool.length) orderPool.push(...(await paidOrders(8)).map((o) => o.id));
+    return orderPool.pop()!;
+  };
 
   const invitee = 'invitee.elsewhere@lab.example';
   await expectStatus(await client.ownerA.post(`/api/labs/${labA.id}/invites`, { email: invitee }), 201, 'an invitation');
@@ -350,12 +354,9 @@ export async function buildWorld(app: TestApp): Promise<World> {
         await getDb().insert(labMemberships).values({ labId: labA.id, userId: id, role: 'member' });
         return id;
       },
-      async paidOrder() {
-        if (!orderPool.length) orderPool.push(...(await paidOrders(8)).map((o) => o.id));
-        return orderPool.pop()!;
-      },
+      paidOrder,
       async shippedOrder() {
-        const id = await this.paidOrder();
+        const id = await paidOrder();
         await expectStatus(
           await client.ownerA.post(`/api/orders/${id}/ship`, { carrier: 'Lab courier', trackingNumber: 'LY-FIXTURE' }),
           200,

@@ -2,7 +2,17 @@ import { FACETS, FACET_LABELS, type Facet, type Facets } from '../../lib/search/
 import type { Filters } from '../../lib/schemas/search';
 
 /** Facet filters with counts; each count says how many results ticking that value would give. */
-export function FacetPanel({ facets, filters, onToggle, onClear }: { facets: Facets; filters: Filters; onToggle: (facet: Facet, value: string) => void; onClear: () => void }) {
+export function FacetPanel({
+  facets,
+  filters,
+  onToggle,
+  onClear,
+}: {
+  facets: Facets;
+  filters: Filters;
+  onToggle: (facet: Facet, value: string) => void;
+  onClear: () => void;
+}) {
   const active = FACETS.some((f) => (filters[f]?.length ?? 0) > 0);
   return (
     <div className="space-y-4" data-testid="facets">

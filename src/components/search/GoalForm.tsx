@@ -2,7 +2,17 @@ import type { GoalMode } from '../../lib/schemas/search';
 import { visibleFields, type Values } from '../../lib/search/goal-forms';
 
 /** The goal's fields for one mode, each with its unit; problems shown on their fields. */
-export function GoalForm({ mode, values, errors, onChange }: { mode: GoalMode; values: Values; errors: Record<string, string>; onChange: (key: string, value: string) => void }) {
+export function GoalForm({
+  mode,
+  values,
+  errors,
+  onChange,
+}: {
+  mode: GoalMode;
+  values: Values;
+  errors: Record<string, string>;
+  onChange: (key: string, value: string) => void;
+}) {
   return (
     <div className="grid gap-x-4 gap-y-3 sm:grid-cols-2 lg:grid-cols-4" data-testid={`goal-form-${mode}`}>
       {visibleFields(mode, values).map((f) => {
@@ -35,7 +45,10 @@ export function GoalForm({ mode, values, errors, onChange }: { mode: GoalMode; v
                   onChange={(e) => onChange(f.key, e.target.value)}
                 />
                 {f.unit && (
-                  <span className="shrink-0 rounded-r-sm border border-l-0 border-rule-strong bg-paper px-2 py-2 text-sm" aria-hidden="true">
+                  <span
+                    className="shrink-0 rounded-r-sm border border-l-0 border-rule-strong bg-paper px-2 py-2 text-sm"
+                    aria-hidden="true"
+                  >
                     {f.unit}
                   </span>
                 )}

@@ -7,7 +7,10 @@ import { Plot } from '../tools/Plot';
 import { HeadroomChip } from './HeadroomChip';
 
 function Cautions({ l }: { l: ListingSummary }) {
-  const words = [...l.hazards.map((h) => (h === 'pressurised-gas' ? 'pressurised gas' : h.replace('-', ' '))), ...(l.exportControlled ? ['export control'] : [])];
+  const words = [
+    ...l.hazards.map((h) => (h === 'pressurised-gas' ? 'pressurised gas' : h.replace('-', ' '))),
+    ...(l.exportControlled ? ['export control'] : []),
+  ];
   if (words.length === 0) return null;
   return (
     <span className="ml-1 inline-flex flex-wrap gap-1" aria-label="Cautions">
@@ -23,7 +26,8 @@ function Cautions({ l }: { l: ListingSummary }) {
 function Seller({ l }: { l: ListingSummary }) {
   return (
     <>
-      {l.labName} · {CONDITION_LABELS[l.condition]} · <span className="num">{formatMoney(l.priceCents, l.currency)}</span> · <span className="num">{l.quantity}</span> available
+      {l.labName} · {CONDITION_LABELS[l.condition]} · <span className="num">{formatMoney(l.priceCents, l.currency)}</span> ·{' '}
+      <span className="num">{l.quantity}</span> available
       {l.hasMeasurements && ' · measured'}
     </>
   );

@@ -22,7 +22,10 @@ export function HeadroomChip({ fit }: { fit: ResultFit }) {
   const headroom = formatHeadroom(fit);
   const why = fit.verdict === 'does-not-fit' ? shortReason(fit.reasons) : null;
   return (
-    <span className={`inline-flex items-center gap-1 rounded-full border px-2 py-0.5 text-sm font-medium ${look.cls}`} data-testid="headroom-chip">
+    <span
+      className={`inline-flex items-center gap-1 rounded-full border px-2 py-0.5 text-sm font-medium ${look.cls}`}
+      data-testid="headroom-chip"
+    >
       <span aria-hidden="true">{look.mark}</span> <span>{why && fit.headroom === null ? why : look.word}</span>
       {headroom && <span className="num"> · headroom {headroom}</span>}
     </span>

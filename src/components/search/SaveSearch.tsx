@@ -47,7 +47,8 @@ export function SaveSearch({ signedIn, search, url, suggestedName }: Props) {
       </button>
     );
   }
-  const error = save.error instanceof ApiError ? (save.error.fields?.name ?? save.error.message) : save.error ? 'Saving failed. Try again.' : null;
+  const error =
+    save.error instanceof ApiError ? (save.error.fields?.name ?? save.error.message) : save.error ? 'Saving failed. Try again.' : null;
   return (
     <form
       className="flex flex-wrap items-end gap-2"
@@ -60,7 +61,14 @@ export function SaveSearch({ signedIn, search, url, suggestedName }: Props) {
         <label className="field-label" htmlFor="save-name">
           Name of the saved search
         </label>
-        <input id="save-name" className="field-input" value={name} maxLength={120} onChange={(e) => setName(e.target.value)} aria-invalid={error ? true : undefined} />
+        <input
+          id="save-name"
+          className="field-input"
+          value={name}
+          maxLength={120}
+          onChange={(e) => setName(e.target.value)}
+          aria-invalid={error ? true : undefined}
+        />
       </div>
       <button type="submit" className="btn btn-primary" disabled={save.isPending || search === null}>
         {save.isPending ? 'Saving…' : 'Save'}

@@ -20,7 +20,8 @@ function Rows({ initial }: { initial: SavedSearchRow[] }) {
   const [rows, setRows] = useState(initial);
   const [error, setError] = useState<string | null>(null);
   const setActive = useMutation({
-    mutationFn: ({ id, active }: { id: string; active: boolean }) => api<{ savedSearch: SavedSearchRow }>(`/api/saved-searches/${id}`, { method: 'PATCH', body: { active } }),
+    mutationFn: ({ id, active }: { id: string; active: boolean }) =>
+      api<{ savedSearch: SavedSearchRow }>(`/api/saved-searches/${id}`, { method: 'PATCH', body: { active } }),
     onSuccess: ({ savedSearch }) => setRows((rs) => rs.map((r) => (r.id === savedSearch.id ? savedSearch : r))),
     onError: (e) => setError(e.message),
   });
@@ -32,7 +33,8 @@ function Rows({ initial }: { initial: SavedSearchRow[] }) {
   if (rows.length === 0) {
     return (
       <p className="notice" role="status">
-        No saved searches. On the <a href="/search">search page</a>, state your goal and choose “Save this search”: we e-mail you when a newly approved listing fits it.
+        No saved searches. On the <a href="/search">search page</a>, state your goal and choose “Save this search”: we e-mail you when a
+        newly approved listing fits it.
       </p>
     );
   }
@@ -70,7 +72,11 @@ function Rows({ initial }: { initial: SavedSearchRow[] }) {
                   {r.lastNotifiedAt && <div className="text-xs text-ink-faint">last {formatDate(r.lastNotifiedAt)}</div>}
                 </td>
                 <td className="text-right">
-                  <button type="button" className="btn btn-quiet mb-1 py-1 text-sm" onClick={() => setActive.mutate({ id: r.id, active: !r.active })}>
+                  <button
+                    type="button"
+                    className="btn btn-quiet mb-1 py-1 text-sm"
+                    onClick={() => setActive.mutate({ id: r.id, active: !r.active })}
+                  >
                     {r.active ? 'Stop e-mails' : 'Resume e-mails'}
                   </button>{' '}
                   <button type="button" className="btn btn-quiet py-1 text-sm" onClick={() => remove.mutate(r.id)}>

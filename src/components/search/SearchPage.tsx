@@ -67,7 +67,10 @@ function SearchApp({ initialState, initial, signedIn }: Props) {
     queryFn: async () =>
       request.kind === 'text'
         ? { kind: 'text', data: await api<TextSearchResponse>(`/api/search${request.qs ? `?${request.qs}` : ''}`) }
-        : { kind: 'goal', data: await api<GoalSearchResponse>('/api/search/goal', { body: (request as { body: GoalSearchRequest }).body }) },
+        : {
+            kind: 'goal',
+            data: await api<GoalSearchResponse>('/api/search/goal', { body: (request as { body: GoalSearchRequest }).body }),
+          },
     enabled: request.kind !== 'invalid',
     placeholderData: keepPreviousData,
     initialData: initial && initial.key === key ? initial.result : undefined,
@@ -122,7 +125,12 @@ function SearchApp({ initialState, initial, signedIn }: Props) {
     request.kind === 'goal'
       ? (({ page: _page, pageSize: _size, ...rest }) => rest)(request.body)
       : request.kind === 'text' && (applied.q || Object.keys(applied.filters).length > 0)
-        ? { mode: 'text', ...(applied.q ? { q: applied.q } : {}), ...(Object.keys(applied.filters).length ? { filters: applied.filters } : {}), ...(applied.sort ? { sort: applied.sort as TextSearchRequest['sort'] } : {}) }
+        ? {
+            mode: 'text',
+            ...(applied.q ? { q: applied.q } : {}),
+            ...(Object.keys(applied.filters).length ? { filters: applied.filters } : {}),
+            ...(applied.sort ? { sort: applied.sort as TextSearchRequest['sort'] } : {}),
+          }
         : null;
   const savedName = applied.mode === 'text' ? applied.q || 'Filtered listings' : describeGoal(applied.mode, applied.values);
 
@@ -160,7 +168,15 @@ function SearchApp({ initialState, initial, signedIn }: Props) {
           <label className="field-label" htmlFor="search-q">
             {draftMode === 'text' ? 'Words' : 'Words (optional, to narrow the candidates)'}
           </label>
-          <input id="search-q" type="search" className="field-input" value={draftQ} maxLength={200} placeholder="e.g. 780 nm supermirror" onChange={(e) => setDraftQ(e.target.value)} />
+          <input
+            id="search-q"
+            type="search"
+            className="field-input"
+            value={draftQ}
+            maxLength={200}
+            placeholder="e.g. 780 nm supermirror"
+            onChange={(e) => setDraftQ(e.target.value)}
+          />
         </div>
         {draftMode !== 'text' && (
           <GoalForm
@@ -179,14 +195,28 @@ function SearchApp({ initialState, initial, signedIn }: Props) {
           <button type="submit" className="btn btn-primary">
             {draftMode === 'text' ? 'Search' : 'Find parts that fit'}
           </button>
-          {draftMode !== 'text' && <span className="text-sm text-ink-soft">Every candidate is computed: the figure, its worst case from the tolerances, and the headroom.</span>}
+          {draftMode !== 'text' && (
+            <span className="text-sm text-ink-soft">
+              Every candidate is computed: the figure, its worst case from the tolerances, and the headroom.
+            </span>
+          )}
         </div>
       </form>
 
       {shown?.kind === 'goal' && shown.data.headline.length > 0 && (
-        <section className="mt-4 rounded-md border border-rule bg-white p-3 text-sm" aria-label="What the goal asks of a part" data-testid="headline">
+        <section
+          className="mt-4 rounded-md border border-rule bg-white p-3 text-sm"
+          aria-label="What the goal asks of a part"
+          data-testid="headline"
+        >
           <p className="mb-1 font-semibold">
-            Your goal {nm !== null && <>at <WavelengthChip nm={nm} /></>} asks for
+            Your goal{' '}
+            {nm !== null && (
+              <>
+                at <WavelengthChip nm={nm} />
+              </>
+            )}{' '}
+            asks for
           </p>
           <dl className="grid gap-x-4 gap-y-0.5 sm:grid-cols-[auto_minmax(0,1fr)]">
             {shown.data.headline.map((h) => (
@@ -201,18 +231,35 @@ function SearchApp({ initialState, initial, signedIn }: Props) {
 
       <div className="mt-5 grid gap-6 md:grid-cols-[13rem_minmax(0,1fr)]">
         <aside aria-label="Filters">
-          <button type="button" className="btn btn-quiet mb-3 w-full text-sm md:hidden" aria-expanded={showFilters} onClick={() => setShowFilters((s) => !s)}>
+          <button
+            type="button"
+            className="btn btn-quiet mb-3 w-full text-sm md:hidden"
+            aria-expanded={showFilters}
+            onClick={() => setShowFilters((s) => !s)}
+          >
             {showFilters ? 'Hide filters' : 'Filters'}
           </button>
-          <div className={showFilters ? 'block' : 'hidden md:block'}>{data && <FacetPanel facets={data.facets} filters={applied.filters} onToggle={toggle} onClear={() => go({ ...applied, filters: {}, page: 1 })} />}</div>
+          <div className={showFilters ? 'block' : 'hidden md:block'}>
+            {data && (
+              <FacetPanel
+                facets={data.facets}
+                filters={applied.filters}
+                onToggle={toggle}
+                onClear={() => go({ ...applied, filters: {}, page: 1 })}
+              />
+            )}
+          </div>
         </aside>
 
-        <section aria-live="polite" aria-busy={query.isFetching} className="min-w-0">
+        <section aria-label="Results" aria-busy={query.isFetching} className="min-w-0">
           <div className="mb-3 flex flex-wrap items-center justify-between gap-3">
-            <p className="text-sm text-ink-soft" data-testid="result-count">
+            <p className="text-sm text-ink-soft" data-testid="result-count" aria-live="polite">
               {data ? (
                 <>
-                  <span className="num font-semibold text-ink">{data.total}</span> {applied.mode === 'cavity' && applied.values.config === 'two-listings' ? `best pair${data.total === 1 ? '' : 's'}` : `listing${data.total === 1 ? '' : 's'}`}
+                  <span className="num font-semibold text-ink">{data.total}</span>{' '}
+                  {applied.mode === 'cavity' && applied.values.config === 'two-listings'
+                    ? `best pair${data.total === 1 ? '' : 's'}`
+                    : `listing${data.total === 1 ? '' : 's'}`}
                   {applied.mode !== 'text' && ' judged against your goal'}
                   {query.isFetching && ' · updating…'}
                 </>
@@ -247,7 +294,13 @@ function SearchApp({ initialState, initial, signedIn }: Props) {
             </div>
           </div>
           <div className="mb-4">
-            <SaveSearch key={searchPath({ ...applied, page: 1 })} signedIn={signedIn} search={saved} url={searchPath({ ...applied, page: 1 })} suggestedName={savedName} />
+            <SaveSearch
+              key={searchPath({ ...applied, page: 1 })}
+              signedIn={signedIn}
+              search={saved}
+              url={searchPath({ ...applied, page: 1 })}
+              suggestedName={savedName}
+            />
           </div>
 
           {query.isError && !(query.error instanceof ApiError && query.error.fields) && (
@@ -289,13 +342,23 @@ function SearchApp({ initialState, initial, signedIn }: Props) {
           </div>
           {data && pages > 1 && (
             <nav aria-label="Pages" className="mt-6 flex flex-wrap items-center gap-3 text-sm">
-              <button type="button" className="btn btn-quiet" disabled={applied.page <= 1} onClick={() => go({ ...applied, page: applied.page - 1 })}>
+              <button
+                type="button"
+                className="btn btn-quiet"
+                disabled={applied.page <= 1}
+                onClick={() => go({ ...applied, page: applied.page - 1 })}
+              >
                 ← Previous
               </button>
               <span className="num">
                 Page {applied.page} of {pages}
               </span>
-              <button type="button" className="btn btn-quiet" disabled={applied.page >= pages} onClick={() => go({ ...applied, page: applied.page + 1 })}>
+              <button
+                type="button"
+                className="btn btn-quiet"
+                disabled={applied.page >= pages}
+                onClick={() => go({ ...applied, page: applied.page + 1 })}
+              >
                 Next →
               </button>
             </nav>

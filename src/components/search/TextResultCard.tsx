@@ -5,8 +5,23 @@ import type { ListingSummary } from '../../lib/search/results';
 /** A listing found by words: a card, since the photo helps when browsing. */
 export function TextResultCard({ l }: { l: ListingSummary }) {
   return (
-    <a href={`/listings/${l.id}`} className="sheet flex flex-col overflow-hidden text-ink no-underline hover:border-rule-strong" data-testid="listing-card">
-      {l.photoId ? <img src={`/api/files/${l.photoId}?variant=w320`} alt="" className="aspect-[4/3] w-full object-cover" loading="lazy" width="320" height="240" /> : <div className="aspect-[4/3] w-full bg-paper" aria-hidden="true" />}
+    <a
+      href={`/listings/${l.id}`}
+      className="sheet flex flex-col overflow-hidden text-ink no-underline hover:border-rule-strong"
+      data-testid="listing-card"
+    >
+      {l.photoId ? (
+        <img
+          src={`/api/files/${l.photoId}?variant=w320`}
+          alt=""
+          className="aspect-[4/3] w-full object-cover"
+          loading="lazy"
+          width="320"
+          height="240"
+        />
+      ) : (
+        <div className="aspect-[4/3] w-full bg-paper" aria-hidden="true" />
+      )}
       <div className="flex flex-1 flex-col p-3">
         <p className="text-2xs uppercase tracking-wide text-ink-faint">{CATEGORY_LABELS[l.category]}</p>
         <h3 className="mt-0.5 text-[0.95rem] font-medium leading-snug">{l.title}</h3>

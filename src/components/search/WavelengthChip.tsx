@@ -34,7 +34,11 @@ export function WavelengthChip({ nm }: { nm: number }) {
       <span
         aria-hidden="true"
         className="inline-block h-3 w-3 rounded-full border border-rule-strong"
-        style={visible ? { background: `rgb(${r} ${g} ${b})` } : { background: 'repeating-linear-gradient(45deg, #6b7690 0 2px, #fdfcf9 2px 4px)' }}
+        style={
+          visible
+            ? { background: `rgb(${r} ${g} ${b})` }
+            : { background: 'repeating-linear-gradient(45deg, #6b7690 0 2px, #fdfcf9 2px 4px)' }
+        }
       />
       <span className="num">
         {Number(nm.toPrecision(6))}

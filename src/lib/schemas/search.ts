@@ -41,7 +41,14 @@ function commaList<T extends [string, ...string[]]>(values: T) {
   return z
     .string()
     .max(400)
-    .transform((s) => [...new Set(s.split(',').map((x) => x.trim()).filter(Boolean))])
+    .transform((s) => [
+      ...new Set(
+        s
+          .split(',')
+          .map((x) => x.trim())
+          .filter(Boolean),
+      ),
+    ])
     .pipe(z.array(z.enum(values, { errorMap: () => ({ message: `Use ${values.join(', ')}.` }) })));
 }
 
@@ -76,7 +83,12 @@ const ppm = (what: string) =>
 /** The buyer's mirror in with-own-mirror: R (a fraction), or T + loss in ppm; rocMm null for a flat mirror. */
 export const OwnMirrorSchema = z
   .object({
-    reflectivity: z.number().finite().gt(0, 'The reflectivity is a fraction above 0.').lt(1, 'The reflectivity is a fraction below 1.').optional(),
+    reflectivity: z
+      .number()
+      .finite()
+      .gt(0, 'The reflectivity is a fraction above 0.')
+      .lt(1, 'The reflectivity is a fraction below 1.')
+      .optional(),
     transmissionPpm: ppm('the transmission').optional(),
     lossPpm: ppm('the loss').optional(),
     rocMm: positive('the radius of curvature').nullable(),
@@ -84,10 +96,18 @@ export const OwnMirrorSchema = z
   .strict()
   .superRefine((m, ctx) => {
     if ((m.reflectivity === undefined) === (m.transmissionPpm === undefined)) {
-      ctx.addIssue({ code: 'custom', path: ['reflectivity'], message: 'Give the reflectivity, or the transmission (with its loss), not both.' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['reflectivity'],
+        message: 'Give the reflectivity, or the transmission (with its loss), not both.',
+      });
     }
     if (m.reflectivity !== undefined && m.lossPpm !== undefined) {
-      ctx.addIssue({ code: 'custom', path: ['lossPpm'], message: 'The loss goes with the transmission; with a reflectivity leave it out.' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['lossPpm'],
+        message: 'The loss goes with the transmission; with a reflectivity leave it out.',
+      });
     }
   });
 
@@ -101,7 +121,10 @@ export const CavitySearchGoalSchema = z
     configuration: z.enum(CAVITY_CONFIGURATIONS, { errorMap: () => ({ message: 'Choose pair, with-own-mirror or two-listings.' }) }),
     ownMirror: OwnMirrorSchema.optional(),
     extraLossPpm: ppm('the extra round-trip loss').optional(),
-    atom: z.object({ wavelengthNm, gammaHz: positive('the natural linewidth') }).strict().optional(),
+    atom: z
+      .object({ wavelengthNm, gammaHz: positive('the natural linewidth') })
+      .strict()
+      .optional(),
   })
   .strict()
   .superRefine((g, ctx) => {
@@ -110,7 +133,11 @@ export const CavitySearchGoalSchema = z
       ctx.addIssue({ code: 'custom', path: ['finesse'], message: 'Give one goal: a finesse, a linewidth or a storage time.' });
     }
     if (g.configuration === 'with-own-mirror' && g.ownMirror === undefined) {
-      ctx.addIssue({ code: 'custom', path: ['ownMirror'], message: 'Describe your own mirror: its reflectivity, or transmission and loss, and its radius of curvature.' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['ownMirror'],
+        message: 'Describe your own mirror: its reflectivity, or transmission and loss, and its radius of curvature.',
+      });
     }
   });
 export type CavitySearchGoal = z.infer<typeof CavitySearchGoalSchema>;
@@ -151,7 +178,11 @@ export const SavedSearchCreateSchema = z
   .strict()
   .superRefine((s, ctx) => {
     if (s.search.mode === 'text' && !s.search.q && !Object.values(s.search.filters ?? {}).some((v) => v.length > 0)) {
-      ctx.addIssue({ code: 'custom', path: ['search', 'q'], message: 'A saved text search needs words or a filter, or it would match every listing.' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['search', 'q'],
+        message: 'A saved text search needs words or a filter, or it would match every listing.',
+      });
     }
   });
 export type SavedSearchCreate = z.infer<typeof SavedSearchCreateSchema>;

@@ -46,7 +46,8 @@ export type Measured = (typeof MEASURED_VALUES)[number];
 
 /**
  * Units of each currency per euro, rounded: the magnitude of the ECB euro reference rates of 2024
- * (European Central Bank, "Euro foreign exchange reference rates"). Only for sorting by price and
+ * (European Central Bank, "Euro foreign exchange reference rates"), values from memory, not looked
+ * up. Only for sorting by price and
  * for the price buckets, where a few per cent do not matter; never for what a buyer pays.
  */
 export const ROUGH_PER_EUR: Record<Currency, number> = {

@@ -27,7 +27,10 @@ export const MODE_LABELS: Record<'text' | GoalMode, string> = {
   laser: 'Laser',
 };
 
-const is = (key: string, ...values: string[]) => (v: Values) => values.includes(v[key] ?? '');
+const is =
+  (key: string, ...values: string[]) =>
+  (v: Values) =>
+    values.includes(v[key] ?? '');
 
 export const GOAL_FIELDS: Record<GoalMode, GoalField[]> = {
   cavity: [
@@ -66,11 +69,45 @@ export const GOAL_FIELDS: Record<GoalMode, GoalField[]> = {
       initial: 'r',
       show: is('config', 'with-own-mirror'),
     },
-    { key: 'ownR', label: 'My mirror: reflectivity', unit: '%', initial: '99.998', show: (v) => v.config === 'with-own-mirror' && v.ownBy !== 't' },
-    { key: 'ownT', label: 'My mirror: transmission', unit: 'ppm', initial: '10', show: (v) => v.config === 'with-own-mirror' && v.ownBy === 't' },
-    { key: 'ownL', label: 'My mirror: loss', unit: 'ppm', initial: '5', optional: true, show: (v) => v.config === 'with-own-mirror' && v.ownBy === 't' },
-    { key: 'ownRoc', label: 'My mirror: radius of curvature', unit: 'mm', hint: 'Empty for a flat mirror.', initial: '100', optional: true, show: is('config', 'with-own-mirror') },
-    { key: 'extra', label: 'Extra round-trip loss', unit: 'ppm', hint: 'Crystal, windows or AR surfaces inside the cavity.', initial: '', optional: true },
+    {
+      key: 'ownR',
+      label: 'My mirror: reflectivity',
+      unit: '%',
+      initial: '99.998',
+      show: (v) => v.config === 'with-own-mirror' && v.ownBy !== 't',
+    },
+    {
+      key: 'ownT',
+      label: 'My mirror: transmission',
+      unit: 'ppm',
+      initial: '10',
+      show: (v) => v.config === 'with-own-mirror' && v.ownBy === 't',
+    },
+    {
+      key: 'ownL',
+      label: 'My mirror: loss',
+      unit: 'ppm',
+      initial: '5',
+      optional: true,
+      show: (v) => v.config === 'with-own-mirror' && v.ownBy === 't',
+    },
+    {
+      key: 'ownRoc',
+      label: 'My mirror: radius of curvature',
+      unit: 'mm',
+      hint: 'Empty for a flat mirror.',
+      initial: '100',
+      optional: true,
+      show: is('config', 'with-own-mirror'),
+    },
+    {
+      key: 'extra',
+      label: 'Extra round-trip loss',
+      unit: 'ppm',
+      hint: 'Crystal, windows or AR surfaces inside the cavity.',
+      initial: '',
+      optional: true,
+    },
     { key: 'atomWl', label: 'Atom line (optional): wavelength', unit: 'nm', initial: '', optional: true },
     { key: 'atomGamma', label: 'Atom line: natural linewidth Γ/2π', unit: 'MHz', initial: '', optional: true },
   ],
@@ -188,11 +225,16 @@ function cavityGoal(v: Values): Built {
   const { errors, num } = builder('cavity', v);
   const own =
     v.config === 'with-own-mirror'
-      ? defined(v.ownBy === 't' ? { transmissionPpm: num('ownT'), lossPpm: num('ownL') ?? 0, rocMm: num('ownRoc') ?? null } : { reflectivity: num('ownR', 0.01), rocMm: num('ownRoc') ?? null })
+      ? defined(
+          v.ownBy === 't'
+            ? { transmissionPpm: num('ownT'), lossPpm: num('ownL') ?? 0, rocMm: num('ownRoc') ?? null }
+            : { reflectivity: num('ownR', 0.01), rocMm: num('ownRoc') ?? null },
+        )
       : undefined;
   const atomWl = num('atomWl');
   const atomGamma = num('atomGamma', 1e6);
-  if ((atomWl === undefined) !== (atomGamma === undefined)) errors[atomWl === undefined ? 'atomWl' : 'atomGamma'] = 'Give both the atom line’s wavelength and its linewidth, or neither.';
+  if ((atomWl === undefined) !== (atomGamma === undefined))
+    errors[atomWl === undefined ? 'atomWl' : 'atomGamma'] = 'Give both the atom line’s wavelength and its linewidth, or neither.';
   const goal = defined({
     wavelengthNm: num('wl'),
     finesse: num('finesse'),
@@ -209,7 +251,10 @@ function cavityGoal(v: Values): Built {
 
 function squeezingGoal(v: Values): Built {
   const { errors, num } = builder('squeezing', v);
-  const source = v.source === 'initial' ? { kind: 'initial', initialDb: num('initial') } : { kind: 'opo', pumpParameter: num('pump'), linewidthHz: num('opoLw', 1e6) };
+  const source =
+    v.source === 'initial'
+      ? { kind: 'initial', initialDb: num('initial') }
+      : { kind: 'opo', pumpParameter: num('pump'), linewidthHz: num('opoLw', 1e6) };
   const goal = defined({
     wavelengthNm: num('wl'),
     targetDb: num('db'),
@@ -229,21 +274,45 @@ function countingGoal(v: Values): Built {
   const rate = num('rate', 1e3);
   const window = num('window', 1e-9);
   const car = num('car');
-  if (car !== undefined && (rate === undefined || window === undefined)) errors.car = 'A coincidence-to-accidental goal needs the photon rate and the window.';
-  const target = v.target === 'heralding' ? { kind: 'heralding', efficiency: num('herald', 0.01) } : { kind: 'bell', test: v.target === 'chsh' ? 'chsh' : 'eberhard' };
-  const goal = defined({ wavelengthNm: num('wl'), target, opticalEfficiency: num('optical', 0.01), countRateHz: rate, coincidenceWindowS: window, carMin: car });
+  if (car !== undefined && (rate === undefined || window === undefined))
+    errors.car = 'A coincidence-to-accidental goal needs the photon rate and the window.';
+  const target =
+    v.target === 'heralding'
+      ? { kind: 'heralding', efficiency: num('herald', 0.01) }
+      : { kind: 'bell', test: v.target === 'chsh' ? 'chsh' : 'eberhard' };
+  const goal = defined({
+    wavelengthNm: num('wl'),
+    target,
+    opticalEfficiency: num('optical', 0.01),
+    countRateHz: rate,
+    coincidenceWindowS: window,
+    carMin: car,
+  });
   return { goal, errors };
 }
 
 function laserGoal(v: Values): Built {
   const { errors, num } = builder('laser', v);
-  const wavelength = v.wlKind === 'range' ? { kind: 'range', minNm: num('wlMin'), maxNm: num('wlMax') } : defined({ kind: 'fixed', nm: num('wl'), toleranceNm: num('tol') });
-  const coherence = v.coh === 'length' ? { kind: 'coherence-length', minM: num('lc') } : v.coh === 'none' ? undefined : { kind: 'linewidth', maxHz: num('lw', 1e3) };
+  const wavelength =
+    v.wlKind === 'range'
+      ? { kind: 'range', minNm: num('wlMin'), maxNm: num('wlMax') }
+      : defined({ kind: 'fixed', nm: num('wl'), toleranceNm: num('tol') });
+  const coherence =
+    v.coh === 'length'
+      ? { kind: 'coherence-length', minM: num('lc') }
+      : v.coh === 'none'
+        ? undefined
+        : { kind: 'linewidth', maxHz: num('lw', 1e3) };
   const goal = defined({ wavelength, coherence, minPowerW: num('power', 1e-3) });
   return { goal, errors };
 }
 
-const BUILD: Record<GoalMode, (v: Values) => Built> = { cavity: cavityGoal, squeezing: squeezingGoal, counting: countingGoal, laser: laserGoal };
+const BUILD: Record<GoalMode, (v: Values) => Built> = {
+  cavity: cavityGoal,
+  squeezing: squeezingGoal,
+  counting: countingGoal,
+  laser: laserGoal,
+};
 
 /** The schema's goal paths, back onto the form fields they come from. */
 const PATH_TO_FIELD: Record<GoalMode, Record<string, string>> = {
@@ -276,7 +345,14 @@ const PATH_TO_FIELD: Record<GoalMode, Record<string, string>> = {
     loPowerW: 'lo',
     phaseNoiseRad: 'phase',
   },
-  counting: { wavelengthNm: 'wl', 'target.efficiency': 'herald', opticalEfficiency: 'optical', countRateHz: 'rate', coincidenceWindowS: 'window', carMin: 'car' },
+  counting: {
+    wavelengthNm: 'wl',
+    'target.efficiency': 'herald',
+    opticalEfficiency: 'optical',
+    countRateHz: 'rate',
+    coincidenceWindowS: 'window',
+    carMin: 'car',
+  },
   laser: {
     'wavelength.nm': 'wl',
     'wavelength.toleranceNm': 'tol',
@@ -314,7 +390,12 @@ export function goalRequest(mode: GoalMode, v: Values, rest: Omit<GoalSearchRequ
 export function describeGoal(mode: GoalMode, v: Values): string {
   switch (mode) {
     case 'cavity': {
-      const target = v.target === 'linewidth' ? `Linewidth ≤ ${v.linewidth} kHz` : v.target === 'storage' ? `Storage time ≥ ${v.storage} µs` : `Finesse ${v.finesse}`;
+      const target =
+        v.target === 'linewidth'
+          ? `Linewidth ≤ ${v.linewidth} kHz`
+          : v.target === 'storage'
+            ? `Storage time ≥ ${v.storage} µs`
+            : `Finesse ${v.finesse}`;
       const config = v.config === 'two-listings' ? 'two listings' : v.config === 'with-own-mirror' ? 'with my mirror' : 'pair';
       return `${target} at ${v.wl} nm, ${v.len} mm, ${config}`;
     }

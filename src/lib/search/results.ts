@@ -37,7 +37,10 @@ export interface Detail {
 }
 
 /** The fit engine's result for one candidate, with what the result list needs to show it. */
-export type ResultFit = Pick<GoalResult, 'pass' | 'verdict' | 'figure' | 'worst' | 'goal' | 'headroom' | 'unit' | 'reasons' | 'notes' | 'formula' | 'source'> & {
+export type ResultFit = Pick<
+  GoalResult,
+  'pass' | 'verdict' | 'figure' | 'worst' | 'goal' | 'headroom' | 'unit' | 'reasons' | 'notes' | 'formula' | 'source'
+> & {
   /** "Predicted finesse", "Predicted measured squeezing", "Limiting figure: …". */
   figureLabel: string;
   /** Supporting figures: linewidth, g-parameters, waist; QE and clearance; each constraint. */

@@ -3,7 +3,16 @@
  * mode, the goal form's values, filters, sort and page. The page reads it on the server for the first
  * render and the island keeps it in step with history.pushState.
  */
-import { GOAL_MODES, GOAL_SORTS, TEXT_SORTS, type Filters, type GoalMode, type GoalSearchRequest, type GoalSort, type TextSort } from '../schemas/search';
+import {
+  GOAL_MODES,
+  GOAL_SORTS,
+  TEXT_SORTS,
+  type Filters,
+  type GoalMode,
+  type GoalSearchRequest,
+  type GoalSort,
+  type TextSort,
+} from '../schemas/search';
 import { FACETS, FACET_VALUES, type Facet } from './facets';
 import { GOAL_FIELDS, goalRequest, initialValues, visibleFields, type GoalRequestResult, type Values } from './goal-forms';
 

@@ -51,7 +51,8 @@ export async function cachedPage(key: string, render: () => Promise<Response>, n
   let entry: Entry | null = null;
   try {
     const response = await render();
-    if (response.status !== 200 || !/^text\/html\b/i.test(response.headers.get('content-type') ?? '') || response.headers.has('set-cookie')) return response;
+    if (response.status !== 200 || !/^text\/html\b/i.test(response.headers.get('content-type') ?? '') || response.headers.has('set-cookie'))
+      return response;
     entry = { body: await response.arrayBuffer(), status: response.status, headers: [...response.headers], expires: now() + TTL_MS };
     entries.delete(key);
     if (entries.size >= MAX_ENTRIES) entries.delete(entries.keys().next().value!);

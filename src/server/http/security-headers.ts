@@ -79,8 +79,10 @@ export function securityHeaders(contentType: string | null, astroPolicy: string 
 
 let options: SecurityOptions | undefined;
 function currentOptions(): SecurityOptions {
-  const config = getConfig();
-  options ??= { storageOrigin: storageOrigin(config), https: isSecureOrigin(config), dev: import.meta.env.DEV };
+  if (!options) {
+    const config = getConfig();
+    options = { storageOrigin: storageOrigin(config), https: isSecureOrigin(config), dev: import.meta.env.DEV };
+  }
   return options;
 }
 

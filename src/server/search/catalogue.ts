@@ -5,6 +5,7 @@
  * once; and the full-text index. It knows nothing of the database; live-index.ts keeps it in step.
  */
 import type { Category } from '../../lib/listings/constants';
+import type { Facets } from '../../lib/search/facets';
 import type { SearchDoc } from './documents';
 import { FACET_COUNT, facetMasks } from './facets';
 import { envelope, prepare, type Prepared } from './goals/prepare';
@@ -18,6 +19,7 @@ export class Catalogue {
   masks = new Int32Array(64 * FACET_COUNT);
   quantity = new Int32Array(64);
   euroCents = new Float64Array(64);
+  approvedAt = new Float64Array(64);
   /** Where the listing may have fit values, nm; NaN for nowhere. */
   coverLo = new Float64Array(64);
   coverHi = new Float64Array(64);
@@ -25,6 +27,7 @@ export class Catalogue {
   private byCategory = new Map<string, Int32Array>();
   private newestOrder: number[] | null = null;
   private priceOrder: number[] | null = null;
+  private readonly facetCache = new Map<string, Facets>();
 
   get size(): number {
     return this.slotOf.size;
@@ -58,7 +61,7 @@ export class Catalogue {
 
   upsert(doc: SearchDoc): void {
     const existing = this.slotOf.get(doc.id);
-    if (existing !== undefined) this.text.discard(doc.id);
+    if (existing !== undefined) this.text.discard(existing);
     const slot = existing ?? this.free.pop() ?? this.docs.length;
     this.slotOf.set(doc.id, slot);
     this.docs[slot] = doc;
@@ -68,17 +71,18 @@ export class Catalogue {
     this.masks.set(facetMasks(doc), slot * FACET_COUNT);
     this.quantity[slot] = doc.quantity;
     this.euroCents[slot] = doc.euroCents;
+    this.approvedAt[slot] = doc.approvedAt;
     const [lo, hi] = envelope(prep);
     this.coverLo[slot] = lo;
     this.coverHi[slot] = hi;
-    this.text.add(doc);
+    this.text.add(doc, slot);
     this.changed();
   }
 
   remove(id: string): void {
     const slot = this.slotOf.get(id);
     if (slot === undefined) return;
-    this.text.discard(id);
+    this.text.discard(slot);
     this.slotOf.delete(id);
     this.docs[slot] = undefined;
     this.prepared[slot] = null;
@@ -104,6 +108,7 @@ export class Catalogue {
     this.masks = widen(this.masks, (k) => new Int32Array(k), FACET_COUNT);
     this.quantity = widen(this.quantity, (k) => new Int32Array(k));
     this.euroCents = widen(this.euroCents, (k) => new Float64Array(k));
+    this.approvedAt = widen(this.approvedAt, (k) => new Float64Array(k));
     this.coverLo = widen(this.coverLo, (k) => new Float64Array(k));
     this.coverHi = widen(this.coverHi, (k) => new Float64Array(k));
   }
@@ -112,6 +117,16 @@ export class Catalogue {
     this.byCategory = new Map();
     this.newestOrder = null;
     this.priceOrder = null;
+    this.facetCache.clear();
+  }
+
+  /** Facet counts a search kept for this catalogue version (see search.ts: unfiltered candidate sets). */
+  facetsFor(key: string): Facets | undefined {
+    return this.facetCache.get(key);
+  }
+
+  keepFacets(key: string, facets: Facets): void {
+    this.facetCache.set(key, facets);
   }
 
   /** Slots of these categories in slot order, cached until the next change. */
@@ -129,13 +144,15 @@ export class Catalogue {
 
   /** Every slot, newest approval first; cached until the next change. */
   byNewest(): number[] {
-    this.newestOrder ??= [...this.slotOf.values()].sort((a, b) => this.doc(b).approvedAt - this.doc(a).approvedAt || a - b);
+    const at = this.approvedAt;
+    this.newestOrder ??= [...this.slotOf.values()].sort((a, b) => at[b]! - at[a]! || a - b);
     return this.newestOrder;
   }
 
   /** Every slot, cheapest first (rough euro price); cached until the next change. */
   byPrice(): number[] {
-    this.priceOrder ??= [...this.slotOf.values()].sort((a, b) => this.doc(a).euroCents - this.doc(b).euroCents || a - b);
+    const price = this.euroCents;
+    this.priceOrder ??= [...this.slotOf.values()].sort((a, b) => price[a]! - price[b]! || a - b);
     return this.priceOrder;
   }
 }

@@ -74,7 +74,10 @@ export class LiveIndex {
 
   private async pollOnce(): Promise<void> {
     const startedAt = Date.now();
-    const [rows, files] = await Promise.all([listingsChangedSince(this.cursors.updatedAt - LOOKBACK_MS), fileChangesAfter(this.cursors.auditId)]);
+    const [rows, files] = await Promise.all([
+      listingsChangedSince(this.cursors.updatedAt - LOOKBACK_MS),
+      fileChangesAfter(this.cursors.auditId),
+    ]);
     const ids = new Set<string>();
     for (const r of rows) {
       this.cursors.updatedAt = Math.max(this.cursors.updatedAt, r.updatedAt.getTime());

@@ -21,7 +21,11 @@ function chunks<T>(xs: readonly T[]): T[][] {
 async function filesFor(listingIds: readonly string[] | null): Promise<Map<string, FileRow[]>> {
   const db = getDb();
   const where = (ids?: string[]) =>
-    and(eq(listingFiles.status, 'ready'), inArray(listingFiles.kind, ['photo', 'measurement']), ids ? inArray(listingFiles.listingId, ids) : undefined);
+    and(
+      eq(listingFiles.status, 'ready'),
+      inArray(listingFiles.kind, ['photo', 'measurement']),
+      ids ? inArray(listingFiles.listingId, ids) : undefined,
+    );
   const select = (ids?: string[]) =>
     db
       .select({ id: listingFiles.id, listingId: listingFiles.listingId, kind: listingFiles.kind, data: listingFiles.data })
@@ -61,15 +65,32 @@ function docsOf(rows: Row[], files: Map<string, FileRow[]>): SearchDoc[] {
 
 /** Every searchable listing. */
 export async function loadAll(): Promise<SearchDoc[]> {
-  const [rows, files] = await Promise.all([getDb().select(listingColumns).from(listings).innerJoin(labs, eq(labs.id, listings.labId)).where(searchable), filesFor(null)]);
+  const [rows, files] = await Promise.all([
+    getDb().select(listingColumns).from(listings).innerJoin(labs, eq(labs.id, listings.labId)).where(searchable),
+    filesFor(null),
+  ]);
   return docsOf(rows, files);
 }
 
 /** The searchable listings among these ids (the others have left search or never entered it). */
 export async function loadSome(ids: readonly string[]): Promise<{ docs: SearchDoc[]; versions: Map<string, number> }> {
   const db = getDb();
-  const all = (await Promise.all(chunks(ids).map((c) => db.select({ id: listings.id, version: listings.version }).from(listings).where(inArray(listings.id, c))))).flat();
-  const rows = (await Promise.all(chunks(ids).map((c) => db.select(listingColumns).from(listings).innerJoin(labs, eq(labs.id, listings.labId)).where(and(searchable, inArray(listings.id, c)))))).flat();
+  const all = (
+    await Promise.all(
+      chunks(ids).map((c) => db.select({ id: listings.id, version: listings.version }).from(listings).where(inArray(listings.id, c))),
+    )
+  ).flat();
+  const rows = (
+    await Promise.all(
+      chunks(ids).map((c) =>
+        db
+          .select(listingColumns)
+          .from(listings)
+          .innerJoin(labs, eq(labs.id, listings.labId))
+          .where(and(searchable, inArray(listings.id, c))),
+      ),
+    )
+  ).flat();
   const files = rows.length ? await filesFor(rows.map((r) => r.id)) : new Map<string, FileRow[]>();
   return { docs: docsOf(rows, files), versions: new Map(all.map((r) => [r.id, r.version])) };
 }

@@ -85,7 +85,19 @@ async function recordHit(cat: Catalogue, s: SavedSearch, doc: SearchDoc, fit: Li
       .from(savedSearchHits)
       .where(and(eq(savedSearchHits.savedSearchId, s.id), isNull(savedSearchHits.notifiedAt), ne(savedSearchHits.listingId, doc.id)));
     const others = earlier.map((h) => cat.get(h.listingId)).filter((d): d is SearchDoc => d !== undefined);
-    await queueMail(savedSearchMail({ to: buyer.email, buyerName: buyer.name, searchName: s.name, url: storedQuery(s).url, doc, fit, others, token: token.token }), tx);
+    await queueMail(
+      savedSearchMail({
+        to: buyer.email,
+        buyerName: buyer.name,
+        searchName: s.name,
+        url: storedQuery(s).url,
+        doc,
+        fit,
+        others,
+        token: token.token,
+      }),
+      tx,
+    );
     await tx
       .update(savedSearchHits)
       .set({ notifiedAt: now })

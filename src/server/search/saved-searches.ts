@@ -41,12 +41,23 @@ export type SavedSearchView = ReturnType<typeof shape>;
 
 export async function createSavedSearch(user: CurrentUser, input: SavedSearchCreate): Promise<SavedSearchView> {
   const db = getDb();
-  const [count] = await db.select({ n: sql<number>`count(*)` }).from(savedSearches).where(eq(savedSearches.userId, user.id));
-  if ((count?.n ?? 0) >= MAX_PER_USER) throw new HttpError(409, 'conflict', `You have ${MAX_PER_USER} saved searches; delete one to save another.`);
+  const [count] = await db
+    .select({ n: sql<number>`count(*)` })
+    .from(savedSearches)
+    .where(eq(savedSearches.userId, user.id));
+  if ((count?.n ?? 0) >= MAX_PER_USER)
+    throw new HttpError(409, 'conflict', `You have ${MAX_PER_USER} saved searches; delete one to save another.`);
   const query: StoredQuery = { search: input.search, url: input.url };
   const [row] = await db
     .insert(savedSearches)
-    .values({ id: newId(), userId: user.id, name: input.name, mode: input.search.mode, query: query as unknown as Record<string, unknown>, unsubscribeTokenHash: newToken().hash })
+    .values({
+      id: newId(),
+      userId: user.id,
+      name: input.name,
+      mode: input.search.mode,
+      query: query as unknown as Record<string, unknown>,
+      unsubscribeTokenHash: newToken().hash,
+    })
     .returning();
   return shape(row!, 0);
 }
@@ -54,7 +65,10 @@ export async function createSavedSearch(user: CurrentUser, input: SavedSearchCre
 export async function listSavedSearches(user: CurrentUser): Promise<SavedSearchView[]> {
   const db = getDb();
   const rows = await db
-    .select({ s: savedSearches, hits: sql<number>`(select count(*) from ${savedSearchHits} h where h.saved_search_id = ${savedSearches.id})` })
+    .select({
+      s: savedSearches,
+      hits: sql<number>`(select count(*) from ${savedSearchHits} h where h.saved_search_id = ${savedSearches.id})`,
+    })
     .from(savedSearches)
     .where(eq(savedSearches.userId, user.id))
     .orderBy(desc(savedSearches.createdAt));
@@ -77,7 +91,10 @@ export async function setSavedSearchActive(user: CurrentUser, id: string, active
     .where(and(eq(savedSearches.id, id), eq(savedSearches.userId, user.id)))
     .returning();
   if (!row) throw notFound('No such saved search.');
-  const [h] = await db.select({ n: sql<number>`count(*)` }).from(savedSearchHits).where(eq(savedSearchHits.savedSearchId, id));
+  const [h] = await db
+    .select({ n: sql<number>`count(*)` })
+    .from(savedSearchHits)
+    .where(eq(savedSearchHits.savedSearchId, id));
   return shape(row, Number(h?.n ?? 0));
 }
 

@@ -6,12 +6,41 @@
 import type { GoalResult } from '../../lib/fit';
 import type { Category } from '../../lib/listings/constants';
 import { DEFAULT_PAGE_SIZE, type Filters, type GoalSearchRequest, type TextSearchQuery } from '../../lib/schemas/search';
-import type { Detail, GoalSearchResponse, GoalSearchResult, Headline, PlotData, ResultFit, TextSearchResponse } from '../../lib/search/results';
+import type { Facets } from '../../lib/search/facets';
+import type {
+  Detail,
+  GoalSearchResponse,
+  GoalSearchResult,
+  Headline,
+  PlotData,
+  ResultFit,
+  TextSearchResponse,
+} from '../../lib/search/results';
 import type { Catalogue } from './catalogue';
 import { listingSummary, type SearchDoc } from './documents';
 import { FacetCounter, filterMasks } from './facets';
-import { bestTwoListingPairs, cavityFigureLabel, cavityHeadline, cavityKey, cavityPlot, cavityQuery, evaluateCavity, pairKey, toCavityGoal, type MirrorCandidate, type MirrorPrep } from './goals/cavity';
-import { countingFigureLabel, countingHeadline, countingKey, countingPlot, countingQuery, evaluateCounting, type CounterPrep } from './goals/counting';
+import {
+  bestTwoListingPairs,
+  cavityFigureLabel,
+  cavityHeadline,
+  cavityKey,
+  cavityPlot,
+  cavityQuery,
+  evaluateCavity,
+  pairKey,
+  toCavityGoal,
+  type MirrorCandidate,
+  type MirrorPrep,
+} from './goals/cavity';
+import {
+  countingFigureLabel,
+  countingHeadline,
+  countingKey,
+  countingPlot,
+  countingQuery,
+  evaluateCounting,
+  type CounterPrep,
+} from './goals/counting';
 import { evaluateLaser, laserFigureLabel, laserHeadline, laserKey, laserPlot, laserQuery, type LaserPrep } from './goals/laser';
 import { cavityDetails, countingDetails, laserDetails, squeezingDetails } from './goals/details';
 import { mirrorAt } from './goals/prepare';
@@ -39,15 +68,14 @@ export function textSearch(cat: Catalogue, q: TextSearchQuery): TextSearchRespon
   const sort = q.sort ?? (words ? 'relevance' : 'newest');
   const hits: { slot: number; score: number | null }[] = [];
   if (words) {
-    for (const r of searchText(cat.text, words)) {
-      const slot = cat.slot(r.id);
-      if (slot !== undefined && counter.add(cat.masks, slot)) hits.push({ slot, score: r.score });
-    }
+    for (const r of searchText(cat.text, words)) if (counter.add(cat.masks, r.slot)) hits.push({ slot: r.slot, score: r.score });
+    const at = cat.approvedAt;
+    const price = cat.euroCents;
     // best match first; equal scores (words in the title, for very common words) newest first
-    if (sort === 'relevance') hits.sort((a, b) => (b.score ?? 0) - (a.score ?? 0) || cat.doc(b.slot).approvedAt - cat.doc(a.slot).approvedAt);
-    if (sort === 'newest') hits.sort((a, b) => cat.doc(b.slot).approvedAt - cat.doc(a.slot).approvedAt);
-    if (sort === 'price-asc') hits.sort((a, b) => cat.doc(a.slot).euroCents - cat.doc(b.slot).euroCents);
-    if (sort === 'price-desc') hits.sort((a, b) => cat.doc(b.slot).euroCents - cat.doc(a.slot).euroCents);
+    if (sort === 'relevance') hits.sort((a, b) => b.score! - a.score! || at[b.slot]! - at[a.slot]!);
+    if (sort === 'newest') hits.sort((a, b) => at[b.slot]! - at[a.slot]!);
+    if (sort === 'price-asc') hits.sort((a, b) => price[a.slot]! - price[b.slot]!);
+    if (sort === 'price-desc') hits.sort((a, b) => price[b.slot]! - price[a.slot]!);
   } else {
     const order = sort === 'price-asc' || sort === 'price-desc' ? cat.byPrice() : cat.byNewest();
     const n = order.length;
@@ -91,7 +119,10 @@ function planFor(cat: Catalogue, req: GoalSearchRequest): Plan {
         minQuantity: req.goal.configuration === 'pair' ? 2 : 1,
         nm: q.lambdaNm,
         // two-listings ranks pairs, not listings: here a mirror only needs values at the wavelength
-        key: req.goal.configuration === 'two-listings' ? (s) => (mirrorAt(mirror(s), q.lambdaNm) === null ? BLOCKED : WITH_VALUES) : (s) => cavityKey(q, mirror(s)),
+        key:
+          req.goal.configuration === 'two-listings'
+            ? (s) => (mirrorAt(mirror(s), q.lambdaNm) === null ? BLOCKED : WITH_VALUES)
+            : (s) => cavityKey(q, mirror(s)),
         evaluate: (s) => evaluateCavity(q, mirror(s).spec),
         plot: (s) => cavityPlot(q, mirror(s)),
         label: () => cavityFigureLabel(q),
@@ -170,10 +201,7 @@ function resultFit(r: GoalResult, figureLabel: string, details: Detail[], plot: 
 function textMarks(cat: Catalogue, q: string | undefined): Uint8Array | null {
   if (!hasWords(q)) return null;
   const marks = new Uint8Array(cat.capacity);
-  for (const r of searchText(cat.text, q)) {
-    const s = cat.slot(r.id);
-    if (s !== undefined) marks[s] = 1;
-  }
+  for (const r of searchText(cat.text, q)) marks[r.slot] = 1;
   return marks;
 }
 
@@ -184,13 +212,20 @@ interface Candidates {
   scored: { slot: number; key: RankKey }[];
   /** The others, and those whose key has no headroom: does not fit, ranked by price. */
   unscored: number[];
-  counter: FacetCounter;
+  facets: Facets;
 }
 
-/** The goal over every candidate of the mode: the one loop a goal search spends its time in. */
+/**
+ * The goal over every candidate of the mode: the one loop a goal search spends its time in. Without
+ * words or filters the facet counts depend only on the mode's candidates, so the catalogue keeps them
+ * until its next change.
+ */
 function candidates(cat: Catalogue, plan: Plan, q: string | undefined, filters: Filters | undefined): Candidates {
-  const counter = new FacetCounter(filterMasks(filters));
+  const wanted = filterMasks(filters);
   const marks = textMarks(cat, q);
+  const cacheKey = marks === null && wanted.every((m) => m === 0) ? `${plan.categories.join('|')}:${plan.minQuantity}` : null;
+  const cached = cacheKey === null ? undefined : cat.facetsFor(cacheKey);
+  const counter = cached === undefined ? new FacetCounter(wanted) : null;
   const { masks, quantity, coverLo, coverHi } = cat;
   const nm = plan.nm;
   const minQuantity = plan.minQuantity;
@@ -202,7 +237,7 @@ function candidates(cat: Catalogue, plan: Plan, q: string | undefined, filters: 
     const s = slots[i]!;
     if (quantity[s]! < minQuantity) continue;
     if (marks !== null && marks[s] !== 1) continue;
-    if (!counter.add(masks, s)) continue;
+    if (counter !== null && !counter.add(masks, s)) continue;
     count++;
     if (nm !== null && !(coverLo[s]! <= nm && nm <= coverHi[s]!)) {
       unscored.push(s);
@@ -212,7 +247,9 @@ function candidates(cat: Catalogue, plan: Plan, q: string | undefined, filters: 
     if (key.headroom === null && key.rank === 0) unscored.push(s);
     else scored.push({ slot: s, key });
   }
-  return { count, scored, unscored, counter };
+  const facets = cached ?? counter!.result();
+  if (cacheKey !== null && cached === undefined) cat.keepFacets(cacheKey, facets);
+  return { count, scored, unscored, facets };
 }
 
 export function goalSearch(cat: Catalogue, req: GoalSearchRequest): GoalSearchResponse {
@@ -220,7 +257,7 @@ export function goalSearch(cat: Catalogue, req: GoalSearchRequest): GoalSearchRe
   const size = req.pageSize ?? DEFAULT_PAGE_SIZE;
   const plan = planFor(cat, req);
   if (req.mode === 'cavity' && req.goal.configuration === 'two-listings') return twoListings(cat, req, plan, page, size);
-  const { count, scored, unscored, counter } = candidates(cat, plan, req.q, req.filters);
+  const { count, scored, unscored, facets } = candidates(cat, plan, req.q, req.filters);
   const price = cat.euroCents;
   let ordered: number[];
   if (req.sort === 'price') {
@@ -232,7 +269,8 @@ export function goalSearch(cat: Catalogue, req: GoalSearchRequest): GoalSearchRe
     const from = (page - 1) * size;
     const to = page * size;
     ordered = scored.slice(from, to).map((x) => x.slot);
-    if (ordered.length < size && to > scored.length) ordered.push(...cheapestFirst(cat, unscored, Math.max(0, from - scored.length), to - scored.length));
+    if (ordered.length < size && to > scored.length)
+      ordered.push(...cheapestFirst(cat, unscored, Math.max(0, from - scored.length), to - scored.length));
   }
   return {
     results: ordered.map((s) => {
@@ -242,7 +280,7 @@ export function goalSearch(cat: Catalogue, req: GoalSearchRequest): GoalSearchRe
     total: count,
     page,
     pageSize: size,
-    facets: counter.result(),
+    facets,
     headline: plan.headline,
   };
 }
@@ -262,7 +300,13 @@ function cheapestFirst(cat: Catalogue, slots: readonly number[], from: number, t
   return out;
 }
 
-function twoListings(cat: Catalogue, req: Extract<GoalSearchRequest, { mode: 'cavity' }>, plan: Plan, page: number, size: number): GoalSearchResponse {
+function twoListings(
+  cat: Catalogue,
+  req: Extract<GoalSearchRequest, { mode: 'cavity' }>,
+  plan: Plan,
+  page: number,
+  size: number,
+): GoalSearchResponse {
   const q = cavityQuery(toCavityGoal(req.goal));
   const mirrors: MirrorCandidate[] = [];
   const slotOf: number[] = [];
@@ -277,7 +321,7 @@ function twoListings(cat: Catalogue, req: Extract<GoalSearchRequest, { mode: 'ca
       return WITH_VALUES;
     },
   };
-  const { counter } = candidates(cat, collect, req.q, req.filters);
+  const { facets } = candidates(cat, collect, req.q, req.filters);
   const pairs = bestTwoListingPairs(q, mirrors, MAX_PAIRS).map((p) => {
     const a = slotOf[p.a]!;
     const b = slotOf[p.b]!;
@@ -288,9 +332,14 @@ function twoListings(cat: Catalogue, req: Extract<GoalSearchRequest, { mode: 'ca
   const results: GoalSearchResult[] = pageOf(pairs, page, size).map((p) => ({
     listing: listingSummary(cat.doc(p.a)),
     partner: listingSummary(cat.doc(p.b)),
-    fit: resultFit(p.result, cavityFigureLabel(q), cavityDetails(p.result), cavityPlot(q, cat.prep(p.a) as MirrorPrep, cat.prep(p.b) as MirrorPrep)),
+    fit: resultFit(
+      p.result,
+      cavityFigureLabel(q),
+      cavityDetails(p.result),
+      cavityPlot(q, cat.prep(p.a) as MirrorPrep, cat.prep(p.b) as MirrorPrep),
+    ),
   }));
-  return { results, total: pairs.length, page, pageSize: size, facets: counter.result(), headline: cavityHeadline(q) };
+  return { results, total: pairs.length, page, pageSize: size, facets, headline: cavityHeadline(q) };
 }
 
 export interface ListingFit {
@@ -302,7 +351,7 @@ export interface ListingFit {
 /** Whether the listing is among the goal search's candidates (mode's categories, stock, words, filters). */
 function isCandidate(cat: Catalogue, plan: Plan, req: GoalSearchRequest, slot: number): boolean {
   if (!plan.categories.includes(cat.doc(slot).category) || cat.quantity[slot]! < plan.minQuantity) return false;
-  if (hasWords(req.q) && !searchText(cat.text, req.q).some((r) => r.id === cat.doc(slot).id)) return false;
+  if (hasWords(req.q) && !searchText(cat.text, req.q).some((r) => r.slot === slot)) return false;
   return new FacetCounter(filterMasks(req.filters)).add(cat.masks, slot);
 }
 
@@ -340,6 +389,6 @@ export function fitOfListing(cat: Catalogue, req: GoalSearchRequest, listingId: 
 export function matchesText(cat: Catalogue, q: string | undefined, filters: Filters | undefined, listingId: string): boolean {
   const slot = cat.slot(listingId);
   if (slot === undefined) return false;
-  if (hasWords(q) && !searchText(cat.text, q).some((r) => r.id === listingId)) return false;
+  if (hasWords(q) && !searchText(cat.text, q).some((r) => r.slot === slot)) return false;
   return new FacetCounter(filterMasks(filters)).add(cat.masks, slot);
 }

@@ -55,18 +55,16 @@ export function hasWords(q: string | undefined): q is string {
   return q !== undefined && queryTerms(q).length > 0;
 }
 
+/** What minisearch indexes of a listing; its id is the listing's ordinal in this index. */
 interface TextDoc {
-  id: string;
+  id: number;
   title: string;
   body: string;
 }
 
-function textDoc(d: SearchDoc): TextDoc {
-  return { id: d.id, title: d.title, body: `${d.categoryText} ${d.specsText} ${d.labName} ${d.description}` };
-}
-
+/** A matching listing by its catalogue slot. */
 export interface TextHit {
-  id: string;
+  slot: number;
   score: number;
 }
 
@@ -110,43 +108,49 @@ export class TextIndex {
   private readonly postings = new Map<string, number[]>();
   private vocabulary: string[] | null = null;
   private nextOrdinal = 0;
-  private readonly listings = new Map<string, { ordinal: number; words: string[]; title: string }>();
-  private readonly idAt: (string | undefined)[] = [];
+  private readonly ordinalOfSlot = new Map<number, number>();
+  /** Per ordinal: the catalogue slot (−1 once discarded), the words, and the title's words between separators. */
+  private readonly slotAt: number[] = [];
+  private readonly wordsAt: string[][] = [];
+  private readonly titleAt: string[] = [];
 
-  add(d: SearchDoc): void {
-    const doc = textDoc(d);
+  add(d: SearchDoc, slot: number): void {
+    const doc: TextDoc = { id: this.nextOrdinal++, title: d.title, body: `${d.categoryText} ${d.specsText} ${d.labName} ${d.description}` };
     const title = new Set(queryTerms(doc.title));
     const words = [...new Set([...title, ...queryTerms(doc.body)])];
-    const ordinal = this.nextOrdinal++;
     for (const w of words) {
       const list = this.postings.get(w);
-      if (list) list.push(ordinal);
+      if (list) list.push(doc.id);
       else {
-        this.postings.set(w, [ordinal]);
+        this.postings.set(w, [doc.id]);
         this.vocabulary = null;
       }
     }
-    this.listings.set(d.id, { ordinal, words, title: `${SEP}${[...title].join(SEP)}${SEP}` });
-    this.idAt[ordinal] = d.id;
+    this.ordinalOfSlot.set(slot, doc.id);
+    this.slotAt[doc.id] = slot;
+    this.wordsAt[doc.id] = words;
+    this.titleAt[doc.id] = `${SEP}${[...title].join(SEP)}${SEP}`;
     this.ms.add(doc);
   }
 
-  discard(id: string): void {
-    const entry = this.listings.get(id);
-    if (entry === undefined) return;
-    for (const w of entry.words) {
+  discard(slot: number): void {
+    const ordinal = this.ordinalOfSlot.get(slot);
+    if (ordinal === undefined) return;
+    for (const w of this.wordsAt[ordinal] ?? []) {
       const list = this.postings.get(w);
       if (!list) continue;
-      const i = lowerBound(list, entry.ordinal);
-      if (list[i] === entry.ordinal) list.splice(i, 1);
+      const i = lowerBound(list, ordinal);
+      if (list[i] === ordinal) list.splice(i, 1);
       if (list.length === 0) {
         this.postings.delete(w);
         this.vocabulary = null;
       }
     }
-    this.listings.delete(id);
-    this.idAt[entry.ordinal] = undefined;
-    this.ms.discard(id);
+    this.ordinalOfSlot.delete(slot);
+    this.slotAt[ordinal] = -1;
+    this.wordsAt[ordinal] = [];
+    this.titleAt[ordinal] = '';
+    this.ms.discard(ordinal);
   }
 
   /** The listings holding the word, or for a prefix any word starting with it. */
@@ -171,7 +175,12 @@ export class TextIndex {
       if (l.length < lists[pivot]!.length) pivot = i;
     });
     const others = lists.filter((_, i) => i !== pivot);
-    if (lists[pivot]!.length > BROAD) return this.intersect(lists[pivot]!, others, terms.map((t, i) => (prefixAt(i) ? `${SEP}${t}` : `${SEP}${t}${SEP}`)));
+    if (lists[pivot]!.length > BROAD)
+      return this.intersect(
+        lists[pivot]!,
+        others,
+        terms.map((t, i) => (prefixAt(i) ? `${SEP}${t}` : `${SEP}${t}${SEP}`)),
+      );
     const word = terms[pivot] as string;
     const hits = this.ms.search(word, {
       boost: { title: 3 },
@@ -181,8 +190,9 @@ export class TextIndex {
     });
     const out: TextHit[] = [];
     for (const h of hits) {
-      const ordinal = this.listings.get(h.id as string)?.ordinal;
-      if (ordinal !== undefined && others.every((l) => has(l, ordinal))) out.push({ id: h.id as string, score: h.score });
+      const ordinal = h.id as number;
+      const slot = this.slotAt[ordinal] ?? -1;
+      if (slot >= 0 && others.every((l) => has(l, ordinal))) out.push({ slot, score: h.score });
     }
     return out;
   }
@@ -191,13 +201,19 @@ export class TextIndex {
   private intersect(smallest: readonly number[], others: readonly (readonly number[])[], titleChecks: string[]): TextHit[] {
     const out: TextHit[] = [];
     for (const ordinal of smallest) {
-      if (!others.every((l) => has(l, ordinal))) continue;
-      const id = this.idAt[ordinal];
-      if (id === undefined) continue;
-      const title = this.listings.get(id)!.title;
+      let all = true;
+      for (const l of others) {
+        if (!has(l, ordinal)) {
+          all = false;
+          break;
+        }
+      }
+      const slot = this.slotAt[ordinal] ?? -1;
+      if (!all || slot < 0) continue;
+      const title = this.titleAt[ordinal]!;
       let score = 0;
       for (const c of titleChecks) if (title.includes(c)) score++;
-      out.push({ id, score });
+      out.push({ slot, score });
     }
     return out.sort((a, b) => b.score - a.score);
   }

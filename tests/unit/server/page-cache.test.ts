@@ -2,7 +2,8 @@ import { describe, expect, test } from 'vitest';
 import { notifyListingChanged } from '../../../src/server/listings/events';
 import { cachedPage, pageCacheKey } from '../../../src/server/http/page-cache';
 
-const html = (body: string, init: ResponseInit = {}) => new Response(body, { status: 200, ...init, headers: { 'content-type': 'text/html', ...init.headers } });
+const html = (body: string, init: ResponseInit = {}) =>
+  new Response(body, { status: 200, ...init, headers: { 'content-type': 'text/html', ...init.headers } });
 
 function renderer(make: (n: number) => Response) {
   let calls = 0;
@@ -10,7 +11,8 @@ function renderer(make: (n: number) => Response) {
 }
 
 describe('pageCacheKey', () => {
-  const key = (method: string, path: string, session = false) => pageCacheKey(new Request(`http://app.example${path}`, { method }), new URL(`http://app.example${path}`), session);
+  const key = (method: string, path: string, session = false) =>
+    pageCacheKey(new Request(`http://app.example${path}`, { method }), new URL(`http://app.example${path}`), session);
 
   test('only a GET of a listing page without a query string or a session', () => {
     expect(key('GET', '/listings/abc')).toBe('/listings/abc');

@@ -13,7 +13,8 @@ const directive = (policy: string, name: string) =>
 
 describe('the page policy', () => {
   test("keeps Astro's hashes and nothing else Astro's header might carry", () => {
-    const astro = "script-src 'self' 'unsafe-inline' 'unsafe-eval' https://cdn.example 'sha256-abc+/=' 'strict-dynamic'; style-src 'unsafe-inline' 'sha384-def='; img-src *";
+    const astro =
+      "script-src 'self' 'unsafe-inline' 'unsafe-eval' https://cdn.example 'sha256-abc+/=' 'strict-dynamic'; style-src 'unsafe-inline' 'sha384-def='; img-src *";
     const policy = pagePolicy(astro, opts);
     expect(directive(policy, 'script-src')).toEqual(["'self'", "'sha256-abc+/='"]);
     expect(directive(policy, 'style-src')).toEqual(["'self'", "'sha384-def='"]);

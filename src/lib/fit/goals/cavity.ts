@@ -20,6 +20,8 @@ import type { CavityGoal, CavityGoalResult, CavityTarget, MirrorAtWavelength, Mi
 import { headroomOf, verdictOf, type Better } from './verdict';
 
 const PPM = 1e-6;
+/** A total round-trip loss under which the cavity counts as lossless (its finesse would overflow). */
+const NO_LOSS = 1e-300;
 
 /**
  * A coating specified beyond this angle of incidence is not specified for the normal incidence of a
@@ -227,7 +229,8 @@ export function parseCavityGoal(goal: CavityGoal): ParsedCavityGoal {
 }
 
 function finesseOf(loss1Ppm: number, loss2Ppm: number, extraLoss: number): number | null {
-  if (loss1Ppm === 0 && loss2Ppm === 0 && extraLoss === 0) return null;
+  // below this the finesse (≈ 2π / total loss) leaves the doubles: as good as lossless
+  if (loss1Ppm * PPM + loss2Ppm * PPM + extraLoss < NO_LOSS) return null;
   return finesseFromMirrorLosses({ loss1: loss1Ppm * PPM, loss2: loss2Ppm * PPM, extraLoss });
 }
 

@@ -11,6 +11,9 @@ export const POST = endpoint(async (ctx) => {
   await rateLimit(`unsubscribe:${clientAddress(ctx)}`, 30, 60_000);
   const { token } = await readJson(ctx.request, UnsubscribeSchema);
   const done = await unsubscribe(token);
-  if (!done) throw notFound('This link does not stop any saved search: a newer e-mail may carry a fresh one, or the search was deleted. Signed in, you can manage your saved searches on their page.');
+  if (!done)
+    throw notFound(
+      'This link does not stop any saved search: a newer e-mail may carry a fresh one, or the search was deleted. Signed in, you can manage your saved searches on their page.',
+    );
   return { unsubscribed: true, name: done.name };
 });

@@ -34,14 +34,24 @@ import { BLOCKED, unreadable, VERDICT_RANK, type RankKey } from './rank';
 export type MirrorPrep = Extract<Prepared, { kind: 'mirror' }>;
 
 const PPM = 1e-6;
+/** A total round-trip loss under which the cavity counts as lossless (its finesse would overflow). */
+const NO_LOSS = 1e-300;
 const BETTER: Record<CavityTarget['kind'], Better> = { finesse: 'higher', linewidth: 'lower', 'storage-time': 'higher' };
 const UNIT: Record<CavityTarget['kind'], string> = { finesse: '', linewidth: 'Hz', 'storage-time': 's' };
-const LABEL: Record<CavityTarget['kind'], string> = { finesse: 'Predicted finesse', linewidth: 'Predicted linewidth', 'storage-time': 'Predicted storage time' };
+const LABEL: Record<CavityTarget['kind'], string> = {
+  finesse: 'Predicted finesse',
+  linewidth: 'Predicted linewidth',
+  'storage-time': 'Predicted storage time',
+};
 
 /** The API's cavity goal (mm, one target field, own mirror as R or T + loss) as the fit engine's CavityGoal. */
 export function toCavityGoal(g: CavitySearchGoal): CavityGoal {
   const target: CavityTarget =
-    g.finesse !== undefined ? { kind: 'finesse', value: g.finesse } : g.linewidthHz !== undefined ? { kind: 'linewidth', hz: g.linewidthHz } : { kind: 'storage-time', s: g.storageTimeS as number };
+    g.finesse !== undefined
+      ? { kind: 'finesse', value: g.finesse }
+      : g.linewidthHz !== undefined
+        ? { kind: 'linewidth', hz: g.linewidthHz }
+        : { kind: 'storage-time', s: g.storageTimeS as number };
   const own = g.configuration === 'with-own-mirror' ? g.ownMirror : undefined;
   return {
     wavelengthNm: g.wavelengthNm,
@@ -50,7 +60,12 @@ export function toCavityGoal(g: CavitySearchGoal): CavityGoal {
     configuration: g.configuration,
     ...(own === undefined
       ? {}
-      : { ownMirror: own.reflectivity !== undefined ? { reflectivity: own.reflectivity, rocMm: own.rocMm } : { transmissionPpm: own.transmissionPpm ?? 0, lossPpm: own.lossPpm ?? 0, rocMm: own.rocMm } }),
+      : {
+          ownMirror:
+            own.reflectivity !== undefined
+              ? { reflectivity: own.reflectivity, rocMm: own.rocMm }
+              : { transmissionPpm: own.transmissionPpm ?? 0, lossPpm: own.lossPpm ?? 0, rocMm: own.rocMm },
+        }),
     ...(g.extraLossPpm === undefined ? {} : { extraLossPpm: g.extraLossPpm }),
     ...(g.atom === undefined ? {} : { atom: g.atom }),
   };
@@ -58,7 +73,17 @@ export function toCavityGoal(g: CavitySearchGoal): CavityGoal {
 
 /** A flat in-band mirror used once per search to read the goal-only values the engine derives (the buyer's own mirror). */
 function probeMirror(nm: number): MirrorSpec {
-  return { diameterMm: 25.4, substrate: 'probe', rocMm: null, designWavelengthNm: nm, bandMinNm: nm, bandMaxNm: nm, transmissionPpm: { value: 100 }, lossPpm: { value: 0 }, aoiDeg: 0 };
+  return {
+    diameterMm: 25.4,
+    substrate: 'probe',
+    rocMm: null,
+    designWavelengthNm: nm,
+    bandMinNm: nm,
+    bandMaxNm: nm,
+    transmissionPpm: { value: 100 },
+    lossPpm: { value: 0 },
+    aoiDeg: 0,
+  };
 }
 
 export interface CavityQuery {
@@ -80,7 +105,8 @@ export function cavityQuery(goal: CavityGoal): CavityQuery {
   const p = parseCavityGoal(goal);
   const own = goal.configuration === 'with-own-mirror' ? evaluateCavityGoal(goal, probeMirror(p.lambdaNm)).mirrors[0] : null;
   const kind = p.target.kind;
-  const goalFigure = kind === 'finesse' ? p.goalFinesse : kind === 'linewidth' ? (p.target as { hz: number }).hz : (p.target as { s: number }).s;
+  const goalFigure =
+    kind === 'finesse' ? p.goalFinesse : kind === 'linewidth' ? (p.target as { hz: number }).hz : (p.target as { s: number }).s;
   // radii are few; NaN stands for a flat mirror (Map keys compare NaN equal)
   const memo = new Map<number, Map<number, boolean>>();
   return {
@@ -110,7 +136,8 @@ export function cavityQuery(goal: CavityGoal): CavityQuery {
 
 /** Form 1.3 from the two mirrors' T + loss (ppm) and the extra loss, as evaluateCavityGoal computes it; null when nothing is lost. */
 function finesseOf(loss1Ppm: number, loss2Ppm: number, extraLoss: number): number | null {
-  if (loss1Ppm === 0 && loss2Ppm === 0 && extraLoss === 0) return null;
+  // below this the finesse (≈ 2π / total loss) leaves the doubles: as good as lossless
+  if (loss1Ppm * PPM + loss2Ppm * PPM + extraLoss < NO_LOSS) return null;
   return finesseFromMirrorLosses({ loss1: loss1Ppm * PPM, loss2: loss2Ppm * PPM, extraLoss });
 }
 
@@ -149,7 +176,11 @@ export function evaluateCavity(q: CavityQuery, a: MirrorSpec, b?: MirrorSpec): G
     return evaluateCavityGoal(q.goal, a, b);
   } catch (e) {
     if (!(e instanceof FitInputError)) throw e;
-    const probe = evaluateCavityGoal(q.goal, probeMirror(q.lambdaNm), q.goal.configuration === 'two-listings' ? probeMirror(q.lambdaNm) : undefined);
+    const probe = evaluateCavityGoal(
+      q.goal,
+      probeMirror(q.lambdaNm),
+      q.goal.configuration === 'two-listings' ? probeMirror(q.lambdaNm) : undefined,
+    );
     return unreadable(e, UNIT[q.kind], q.goalFigure, probe.formula, probe.source);
   }
 }
@@ -183,7 +214,11 @@ export function bestTwoListingPairs(q: CavityQuery, mirrors: readonly MirrorCand
   let take = Math.min(order.length, 2 * k + 32);
   for (;;) {
     const chosen = order.slice(0, take);
-    const found = pairsAmong(q, chosen.map((u) => mirrors[u.index]!.prep), k).map((f) => ({ ...f, a: chosen[f.a]!.index, b: chosen[f.b]!.index }));
+    const found = pairsAmong(
+      q,
+      chosen.map((u) => mirrors[u.index]!.prep),
+      k,
+    ).map((f) => ({ ...f, a: chosen[f.a]!.index, b: chosen[f.b]!.index }));
     if (take >= order.length) return found;
     const bound = finesseOf(order[0]!.worst, order[take]!.worst, q.extraLoss) ?? Infinity;
     const last = found[k - 1]?.result.finesse?.worst;
@@ -197,7 +232,11 @@ function pairsAmong(q: CavityQuery, mirrors: MirrorPrep[], k: number): PairFound
   const keep = specs.map((_, i) => i);
   for (;;) {
     try {
-      return bestPairs(q.goal, keep.map((i) => specs[i] as MirrorSpec), k).map((p) => ({ a: keep[p.a]!, b: keep[p.b]!, result: p.result }));
+      return bestPairs(
+        q.goal,
+        keep.map((i) => specs[i] as MirrorSpec),
+        k,
+      ).map((p) => ({ a: keep[p.a]!, b: keep[p.b]!, result: p.result }));
     } catch (e) {
       const bad = e instanceof FitInputError ? /^mirrors\[(\d+)\]/.exec(e.field) : null;
       if (!bad) throw e;
@@ -262,9 +301,20 @@ export function cavityPlot(q: CavityQuery, a: MirrorPrep, b?: MirrorPrep): PlotD
 
 /** The goal as the spec a mirror needs: the finesse, and the T + loss budget per mirror (form 1.11). */
 export function cavityHeadline(q: CavityQuery): Headline[] {
-  const out: Headline[] = [{ label: 'Finesse needed', value: `${formatCount(q.goalFinesse)} (free spectral range ${formatSI(q.fsrHz, 'Hz')})` }];
-  const r = requiredReflectivity(q.own === null ? { finesse: q.goalFinesse, extraLoss: q.extraLoss } : { finesse: q.goalFinesse, r1: 1 - q.own.totalPpm * PPM, extraLoss: q.extraLoss });
-  const who = q.own !== null ? 'The listed mirror, with yours' : q.goal.configuration === 'pair' ? 'Each mirror of the pair' : 'Each mirror, if both are alike';
+  const out: Headline[] = [
+    { label: 'Finesse needed', value: `${formatCount(q.goalFinesse)} (free spectral range ${formatSI(q.fsrHz, 'Hz')})` },
+  ];
+  const r = requiredReflectivity(
+    q.own === null
+      ? { finesse: q.goalFinesse, extraLoss: q.extraLoss }
+      : { finesse: q.goalFinesse, r1: 1 - q.own.totalPpm * PPM, extraLoss: q.extraLoss },
+  );
+  const who =
+    q.own !== null
+      ? 'The listed mirror, with yours'
+      : q.goal.configuration === 'pair'
+        ? 'Each mirror of the pair'
+        : 'Each mirror, if both are alike';
   out.push({
     label: `${who}: T + loss at most`,
     value: r.feasible ? `${formatCount(r.lossBudget / PPM)}${THIN}ppm` : `none reaches it: ${r.reason}`,

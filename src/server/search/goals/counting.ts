@@ -5,7 +5,15 @@
  * buyer's optical efficiency. Sources: Garg & Mermin, Phys. Rev. D 35, 3831 (1987); Eberhard, Phys.
  * Rev. A 47, R747 (1993).
  */
-import { bellThresholds, evaluateCountingGoal, FitInputError, type CountingGoal, type CountingGoalResult, type GoalResult, type SinglePhotonDetectorSpec } from '../../../lib/fit';
+import {
+  bellThresholds,
+  evaluateCountingGoal,
+  FitInputError,
+  type CountingGoal,
+  type CountingGoalResult,
+  type GoalResult,
+  type SinglePhotonDetectorSpec,
+} from '../../../lib/fit';
 import { limiting } from '../../../lib/fit/goals/verdict';
 import type { Headline, PlotData } from '../../../lib/search/results';
 import { THIN } from '../../../lib/units';
@@ -22,7 +30,14 @@ export interface CountingQuery {
 
 /** An ideal detector at the goal's wavelength, evaluated once to check the goal. */
 function probeDetector(nm: number): SinglePhotonDetectorSpec {
-  return { technology: 'probe', wavelengthNm: nm, efficiency: { value: 1 }, darkCountRateHz: { value: 0 }, jitterFwhmS: 0, deadTimeS: 1e-12 };
+  return {
+    technology: 'probe',
+    wavelengthNm: nm,
+    efficiency: { value: 1 },
+    darkCountRateHz: { value: 0 },
+    jitterFwhmS: 0,
+    deadTimeS: 1e-12,
+  };
 }
 
 export function countingQuery(goal: CountingGoal): CountingQuery {
@@ -74,7 +89,10 @@ export function countingHeadline(q: CountingQuery): Headline[] {
   return [
     {
       label: 'Detection efficiency needed',
-      value: need > 1 ? `${(need * 100).toPrecision(3)}${THIN}%: above 100 %, your optics alone miss the threshold` : `${(need * 100).toPrecision(3)}${THIN}% or more at ${q.goal.wavelengthNm}${THIN}nm`,
+      value:
+        need > 1
+          ? `${(need * 100).toPrecision(3)}${THIN}%: above 100 %, your optics alone miss the threshold`
+          : `${(need * 100).toPrecision(3)}${THIN}% or more at ${q.goal.wavelengthNm}${THIN}nm`,
     },
   ];
 }

@@ -8,7 +8,17 @@
  * η = η_esc·η_prop·V²·η_QE·η_el; measured V− = 1 − η·k from the source slopes (5.1, 5.6–5.7).
  * Sources: Appel et al., Phys. Rev. A 75, 035802 (2007); Collett & Gardiner, Phys. Rev. A 30, 1386 (1984).
  */
-import { ELEMENTARY_CHARGE, FitInputError, interpolateCurve, PLANCK, SPEED_OF_LIGHT, sourceSlopes, type CurvePoint, type PhotodiodeSpec, type SqueezingGoal } from '../../../lib/fit';
+import {
+  ELEMENTARY_CHARGE,
+  FitInputError,
+  interpolateCurve,
+  PLANCK,
+  SPEED_OF_LIGHT,
+  sourceSlopes,
+  type CurvePoint,
+  type PhotodiodeSpec,
+  type SqueezingGoal,
+} from '../../../lib/fit';
 import { nearWavelength, readCurve, spread, type Spread } from '../../../lib/fit/goals/spec';
 import { headroomOf, verdictOf, worse } from '../../../lib/fit/goals/verdict';
 import { efficiency, nonNegative, positive } from '../../../lib/fit/validate';
@@ -40,7 +50,8 @@ export function readDetector(d: PhotodiodeSpec): DetectorReading | null {
     const bandwidthHz = positive('detector.bandwidthHz', d.bandwidthHz);
     const saturationW = d.saturationPowerW === undefined ? null : positive('detector.saturationPowerW', d.saturationPowerW);
     if (d.cmrrDb !== undefined) nonNegative('detector.cmrrDb', d.cmrrDb);
-    const curve = d.qeCurve === undefined ? null : readCurve('detector.qeCurve', d.qeCurve, 'wavelengthNm', 'qe', efficiency).sort((a, b) => a.x - b.x);
+    const curve =
+      d.qeCurve === undefined ? null : readCurve('detector.qeCurve', d.qeCurve, 'wavelengthNm', 'qe', efficiency).sort((a, b) => a.x - b.x);
     // the engine's own check (finite points, no two at one wavelength), once
     if (curve !== null) interpolateCurve('detector.qeCurve', curve, curve[0]?.x ?? 0);
     const at = d.wavelengthNm === undefined ? null : positive('detector.wavelengthNm', d.wavelengthNm);
@@ -54,7 +65,8 @@ export function readDetector(d: PhotodiodeSpec): DetectorReading | null {
     if (responsivity !== null && at !== null) {
       const k = 1 / responsivityPerQe(at * 1e-9);
       const nominal = responsivity.nominal * k;
-      qeFromResponsivity = nominal > 0 && nominal <= 1 ? { nominal, low: responsivity.low * k, high: Math.min(1, responsivity.high * k) } : 'refused';
+      qeFromResponsivity =
+        nominal > 0 && nominal <= 1 ? { nominal, low: responsivity.low * k, high: Math.min(1, responsivity.high * k) } : 'refused';
     }
     let noise: Spread | null = null;
     let nep: number | null = null;
@@ -143,7 +155,8 @@ export function detectorFigures(t: SqueezingTerms, r: DetectorReading): Detector
   if (Number.isNaN(elNominal) || Number.isNaN(elWorst)) return null;
   const figure = db(1 - t.chain * qe.nominal * elNominal * t.k);
   const worst = db(1 - t.chain * qe.low * elWorst * t.k);
-  if (r.bandwidthHz < t.sidebandHz || (r.saturationW !== null && r.saturationW < t.loPowerW)) return { figure, worst, rank: 0, headroom: null };
+  if (r.bandwidthHz < t.sidebandHz || (r.saturationW !== null && r.saturationW < t.loPowerW))
+    return { figure, worst, rank: 0, headroom: null };
   let verdict = verdictOf(figure, worst, t.targetDb, 'higher-db');
   if (noise === null) verdict = worse(verdict, 'marginal');
   return { figure, worst, rank: VERDICT_RANK[verdict], headroom: headroomOf(worst, t.targetDb, 'higher-db') };

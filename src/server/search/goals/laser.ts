@@ -19,7 +19,14 @@ export interface LaserQuery {
 
 function probeLaser(goal: LaserGoal): LaserSpec {
   const nm = goal.wavelength.kind === 'fixed' ? goal.wavelength.nm : goal.wavelength.minNm;
-  return { type: 'probe', centreWavelengthNm: nm, linewidthHz: { value: 1 }, powerW: { value: 1 }, singleFrequency: true, fibreOutput: false };
+  return {
+    type: 'probe',
+    centreWavelengthNm: nm,
+    linewidthHz: { value: 1 },
+    powerW: { value: 1 },
+    singleFrequency: true,
+    fibreOutput: false,
+  };
 }
 
 export function laserQuery(goal: LaserGoal): LaserQuery {
@@ -59,25 +66,36 @@ export function laserPlot(q: LaserQuery, p: LaserPrep): PlotData {
   const x = [...new Set([...grid, tLo, tHi, gLo, gHi])].sort((a, b) => a - b);
   const power = s.powerW.value * 1e3;
   const asked = (q.goal.minPowerW ?? s.powerW.value) * 1e3;
-  const askedSeries = gHi > gLo ? [{ label: 'asked for', values: x.map((nm) => (nm >= gLo && nm <= gHi ? asked : null)), dashed: true }] : [];
+  const askedSeries =
+    gHi > gLo ? [{ label: 'asked for', values: x.map((nm) => (nm >= gLo && nm <= gHi ? asked : null)), dashed: true }] : [];
   return {
     title: 'Tuning range against the wavelengths you need',
     xLabel: 'wavelength (nm)',
     yLabel: 'power (mW)',
     x,
-    series: [
-      { label: 'this laser', values: x.map((nm) => (nm >= tLo && nm <= tHi ? power : null)) },
-      ...askedSeries,
-    ],
+    series: [{ label: 'this laser', values: x.map((nm) => (nm >= tLo && nm <= tHi ? power : null)) }, ...askedSeries],
     ...(w.kind === 'fixed' ? { markerX: w.nm } : {}),
   };
 }
 
 export function laserHeadline(q: LaserQuery): Headline[] {
   const w = q.goal.wavelength;
-  const out: Headline[] = [{ label: 'Wavelength', value: w.kind === 'fixed' ? `${w.nm} nm${w.toleranceNm ? ` ± ${w.toleranceNm} nm` : ''} inside the tuning range` : `all of ${w.minNm}–${w.maxNm} nm inside the tuning range` }];
+  const out: Headline[] = [
+    {
+      label: 'Wavelength',
+      value:
+        w.kind === 'fixed'
+          ? `${w.nm} nm${w.toleranceNm ? ` ± ${w.toleranceNm} nm` : ''} inside the tuning range`
+          : `all of ${w.minNm}–${w.maxNm} nm inside the tuning range`,
+    },
+  ];
   const c = q.goal.coherence;
-  if (c) out.push(c.kind === 'linewidth' ? { label: 'Linewidth at most', value: formatSI(c.maxHz, 'Hz') } : { label: 'Coherence length at least', value: formatSI(c.minM, 'm') });
+  if (c)
+    out.push(
+      c.kind === 'linewidth'
+        ? { label: 'Linewidth at most', value: formatSI(c.maxHz, 'Hz') }
+        : { label: 'Coherence length at least', value: formatSI(c.minM, 'm') },
+    );
   if (q.goal.minPowerW !== undefined) out.push({ label: 'Power at least', value: formatSI(q.goal.minPowerW, 'W') });
   return out;
 }

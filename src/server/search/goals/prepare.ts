@@ -80,15 +80,28 @@ interface MeasuredMirror {
 function fromTotals(source: MirrorAtWavelength['source'], t: Spread, a: Spread, rocM: number | null): MirrorAtWavelength | null {
   const total = t.nominal + a.nominal;
   if (!(total < 1e6)) return null;
-  return { source, transmissionPpm: t.nominal, lossPpm: a.nominal, totalPpm: total, totalWorstPpm: Math.min(t.high + a.high, 999_999), totalBestPpm: t.low + a.low, rocM };
+  return {
+    source,
+    transmissionPpm: t.nominal,
+    lossPpm: a.nominal,
+    totalPpm: total,
+    totalWorstPpm: Math.min(t.high + a.high, 999_999),
+    totalBestPpm: t.low + a.low,
+    rocM,
+  };
 }
 
 function readMeasurements(spec: MirrorSpec, rocM: number | null): MeasuredMirror {
   const points = spec.spectrum?.points;
   // checked and sorted once, for lerpSorted
   const byX = (a: CurvePoint, b: CurvePoint) => a.x - b.x;
-  const spectrumT = points === undefined ? null : readCurve('mirror.spectrum.points', points, 'wavelengthNm', 'transmissionPpm', nonNegative).sort(byX);
-  const withLoss = (points ?? []).flatMap((p, i) => (p.lossPpm === undefined ? [] : [{ x: p.wavelengthNm, y: nonNegative(`mirror.spectrum.points[${i}].lossPpm`, p.lossPpm) }])).sort(byX);
+  const spectrumT =
+    points === undefined ? null : readCurve('mirror.spectrum.points', points, 'wavelengthNm', 'transmissionPpm', nonNegative).sort(byX);
+  const withLoss = (points ?? [])
+    .flatMap((p, i) =>
+      p.lossPpm === undefined ? [] : [{ x: p.wavelengthNm, y: nonNegative(`mirror.spectrum.points[${i}].lossPpm`, p.lossPpm) }],
+    )
+    .sort(byX);
   if (spectrumT !== null) interpolateCurve('mirror.spectrum.points', spectrumT, spectrumT[0]?.x ?? 0);
   if (withLoss.length > 0) interpolateCurve('mirror.spectrum.points', withLoss, withLoss[0]!.x);
   const rd = spec.ringdown;
@@ -158,10 +171,19 @@ export function prepare(doc: SearchDoc): Prepared {
       return prepareMirror(c.spec);
     case 'photodiode': {
       const read = readDetector(c.spec);
-      return { kind: 'photodiode', spec: c.spec, covers: read === null ? [] : [...curveSpan(c.spec.qeCurve, 'wavelengthNm'), ...around(c.spec.wavelengthNm)], read };
+      return {
+        kind: 'photodiode',
+        spec: c.spec,
+        covers: read === null ? [] : [...curveSpan(c.spec.qeCurve, 'wavelengthNm'), ...around(c.spec.wavelengthNm)],
+        read,
+      };
     }
     case 'counter':
-      return { kind: 'counter', spec: c.spec, covers: [...curveSpan(c.spec.efficiencyCurve, 'wavelengthNm'), ...around(c.spec.wavelengthNm)] };
+      return {
+        kind: 'counter',
+        spec: c.spec,
+        covers: [...curveSpan(c.spec.efficiencyCurve, 'wavelengthNm'), ...around(c.spec.wavelengthNm)],
+      };
     case 'laser':
       return { kind: 'laser', spec: c.spec };
     default:

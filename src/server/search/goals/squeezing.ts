@@ -5,7 +5,14 @@
  * budget asks of any detector (form 12.4).
  * Sources: Collett & Gardiner, Phys. Rev. A 30, 1386 (1984); Appel et al., Phys. Rev. A 75, 035802 (2007).
  */
-import { evaluateSqueezingGoal, FitInputError, type GoalResult, type PhotodiodeSpec, type SqueezingGoal, type SqueezingGoalResult } from '../../../lib/fit';
+import {
+  evaluateSqueezingGoal,
+  FitInputError,
+  type GoalResult,
+  type PhotodiodeSpec,
+  type SqueezingGoal,
+  type SqueezingGoalResult,
+} from '../../../lib/fit';
 import type { Headline, PlotData } from '../../../lib/search/results';
 import { THIN } from '../../../lib/units';
 import { detectorFigures, detectorKey, squeezingTerms, type SqueezingTerms } from './detector-reading';
@@ -82,7 +89,12 @@ export function squeezingHeadline(q: SqueezingQuery): Headline[] {
   return [
     {
       label: 'Quantum efficiency needed (noiseless electronics)',
-      value: qe === null ? 'none: this source shows no squeezing at this phase noise' : qe > 1 ? `${(qe * 100).toPrecision(4)}${THIN}%, above 100 %: no detector reaches the goal` : `${(qe * 100).toPrecision(3)}${THIN}% or more`,
+      value:
+        qe === null
+          ? 'none: this source shows no squeezing at this phase noise'
+          : qe > 1
+            ? `${(qe * 100).toPrecision(4)}${THIN}%, above 100 %: no detector reaches the goal`
+            : `${(qe * 100).toPrecision(3)}${THIN}% or more`,
     },
     { label: 'Bandwidth at least', value: `the ${(q.goal.sidebandHz / 1e6).toPrecision(3)}${THIN}MHz sideband` },
     { label: 'Saturation power above', value: `${(q.goal.loPowerW * 1e3).toPrecision(3)}${THIN}mW of local oscillator` },
