@@ -71,11 +71,7 @@ export function fakesOptionsFromEnv(env: Env = process.env): FakesOptions {
 
 /** Starts the three fakes together; if one cannot start, the others are stopped again. */
 export async function startAllFakes(options: FakesOptions): Promise<RunningFakes> {
-  const started = await Promise.allSettled([
-    startMailFake(options.mail),
-    startS3Fake(options.s3),
-    startStripeFake(options.stripe),
-  ]);
+  const started = await Promise.allSettled([startMailFake(options.mail), startS3Fake(options.s3), startStripeFake(options.stripe)]);
   const stopAll = async () => {
     await Promise.all(started.map((result) => (result.status === 'fulfilled' ? result.value.stop() : undefined)));
   };

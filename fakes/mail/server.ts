@@ -29,16 +29,7 @@ export interface StoredMail {
   headers: Record<string, string>;
 }
 
-const KEPT_HEADERS = new Set([
-  'message-id',
-  'date',
-  'from',
-  'to',
-  'cc',
-  'reply-to',
-  'content-type',
-  'list-unsubscribe',
-]);
+const KEPT_HEADERS = new Set(['message-id', 'date', 'from', 'to', 'cc', 'reply-to', 'content-type', 'list-unsubscribe']);
 
 // A closing fake has nobody to be polite to; the library default waits 30 s for open clients.
 const CLOSE_TIMEOUT_MS = 1_000;
@@ -91,11 +82,7 @@ async function storeMessage(
   await rename(tempPath, jsonPath);
 }
 
-export async function startMailFake({
-  host = '127.0.0.1',
-  port,
-  dir,
-}: MailFakeOptions): Promise<MailFake> {
+export async function startMailFake({ host = '127.0.0.1', port, dir }: MailFakeOptions): Promise<MailFake> {
   await mkdir(dir, { recursive: true });
 
   const server = new SMTPServer({

@@ -41,13 +41,7 @@ export function corsConfigurationXml(allowedOrigins: string[]): string {
   ].join('');
 }
 
-export async function startS3Fake({
-  host = '127.0.0.1',
-  port,
-  dir,
-  bucket,
-  allowedOrigins,
-}: S3FakeOptions): Promise<S3Fake> {
+export async function startS3Fake({ host = '127.0.0.1', port, dir, bucket, allowedOrigins }: S3FakeOptions): Promise<S3Fake> {
   if (allowedOrigins.length === 0) {
     throw new Error('startS3Fake: allowedOrigins must name at least one origin');
   }

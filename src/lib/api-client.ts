@@ -17,7 +17,8 @@ export async function api<T = unknown>(path: string, init: { method?: string; bo
   try {
     res = await fetch(path, {
       method: init.method ?? (init.body === undefined ? 'GET' : 'POST'),
-      headers: init.body === undefined ? { accept: 'application/json' } : { 'content-type': 'application/json', accept: 'application/json' },
+      headers:
+        init.body === undefined ? { accept: 'application/json' } : { 'content-type': 'application/json', accept: 'application/json' },
       body: init.body === undefined ? undefined : JSON.stringify(init.body),
       credentials: 'same-origin',
     });
@@ -34,7 +35,13 @@ export async function api<T = unknown>(path: string, init: { method?: string; bo
   if (!res.ok) {
     const e = (data as { error?: { code?: string; message?: string; fields?: Record<string, string> } } | null)?.error;
     const retry = Number(res.headers.get('retry-after'));
-    throw new ApiError(res.status, e?.code ?? 'http_' + res.status, e?.message ?? `The request failed (${res.status}).`, e?.fields, Number.isFinite(retry) && retry > 0 ? retry : undefined);
+    throw new ApiError(
+      res.status,
+      e?.code ?? 'http_' + res.status,
+      e?.message ?? `The request failed (${res.status}).`,
+      e?.fields,
+      Number.isFinite(retry) && retry > 0 ? retry : undefined,
+    );
   }
   return data as T;
 }

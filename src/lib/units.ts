@@ -12,10 +12,27 @@ export interface UnitOption {
 }
 
 export const UNITS = {
-  length: { nm: { label: 'nm', factor: 1e-9 }, um: { label: 'µm', factor: 1e-6 }, mm: { label: 'mm', factor: 1e-3 }, cm: { label: 'cm', factor: 1e-2 }, m: { label: 'm', factor: 1 } },
+  length: {
+    nm: { label: 'nm', factor: 1e-9 },
+    um: { label: 'µm', factor: 1e-6 },
+    mm: { label: 'mm', factor: 1e-3 },
+    cm: { label: 'cm', factor: 1e-2 },
+    m: { label: 'm', factor: 1 },
+  },
   fraction: { ppm: { label: 'ppm', factor: 1e-6 }, pct: { label: '%', factor: 1e-2 }, frac: { label: 'fraction', factor: 1 } },
-  frequency: { Hz: { label: 'Hz', factor: 1 }, kHz: { label: 'kHz', factor: 1e3 }, MHz: { label: 'MHz', factor: 1e6 }, GHz: { label: 'GHz', factor: 1e9 } },
-  time: { ps: { label: 'ps', factor: 1e-12 }, ns: { label: 'ns', factor: 1e-9 }, us: { label: 'µs', factor: 1e-6 }, ms: { label: 'ms', factor: 1e-3 }, s: { label: 's', factor: 1 } },
+  frequency: {
+    Hz: { label: 'Hz', factor: 1 },
+    kHz: { label: 'kHz', factor: 1e3 },
+    MHz: { label: 'MHz', factor: 1e6 },
+    GHz: { label: 'GHz', factor: 1e9 },
+  },
+  time: {
+    ps: { label: 'ps', factor: 1e-12 },
+    ns: { label: 'ns', factor: 1e-9 },
+    us: { label: 'µs', factor: 1e-6 },
+    ms: { label: 'ms', factor: 1e-3 },
+    s: { label: 's', factor: 1 },
+  },
   rate: { perS: { label: '/s', factor: 1 }, kperS: { label: 'k/s', factor: 1e3 }, MperS: { label: 'M/s', factor: 1e6 } },
   power: { uW: { label: 'µW', factor: 1e-6 }, mW: { label: 'mW', factor: 1e-3 }, W: { label: 'W', factor: 1 } },
   angle: { mrad: { label: 'mrad', factor: 1e-3 }, rad: { label: 'rad', factor: 1 }, deg: { label: '°', factor: Math.PI / 180 } },

@@ -2,7 +2,10 @@ import { test, expect } from './fixtures';
 import { linkIn, waitForMail } from '../setup/mailbox';
 import { E2E_MAIL_DIR } from './paths';
 
-test('sign up, confirm by the e-mailed link, sign in; a buyer meets the 403 page at /admin; an admin grants the seller role', async ({ page, browser }) => {
+test('sign up, confirm by the e-mailed link, sign in; a buyer meets the 403 page at /admin; an admin grants the seller role', async ({
+  page,
+  browser,
+}) => {
   const email = `e2e.${Date.now()}@lab.example`;
   await page.goto('/sign-up');
   await page.getByRole('button', { name: 'Create account' }).click();

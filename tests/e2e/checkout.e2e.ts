@@ -13,7 +13,9 @@ async function hydrated(page: Page, selector: string) {
   await expect(page.locator(`astro-island:has(${selector})`).first()).not.toHaveAttribute('ssr');
 }
 
-test('the seller’s story: a buyer pays for the demo mirror pair, the lab ships, the buyer confirms, the lab sees the transfer and a paid payout', async ({ browser }) => {
+test('the seller’s story: a buyer pays for the demo mirror pair, the lab ships, the buyer confirms, the lab sees the transfer and a paid payout', async ({
+  browser,
+}) => {
   test.setTimeout(120_000);
   const sellerCtx = await browser.newContext();
   const seller = await sellerCtx.newPage();
@@ -62,7 +64,9 @@ test('the seller’s story: a buyer pays for the demo mirror pair, the lab ships
   await seller.goto('/payouts');
   const transfer = seller.getByTestId('transfer-amount').first();
   await expect(transfer).toBeVisible();
-  const price = await buyer.evaluate(() => document.querySelector('[data-testid=receipt] tbody tr:last-child td:last-child')?.textContent ?? '');
+  const price = await buyer.evaluate(
+    () => document.querySelector('[data-testid=receipt] tbody tr:last-child td:last-child')?.textContent ?? '',
+  );
   const priceValue = Number(price.replace(/[^0-9.]/g, ''));
   expect(Number((await transfer.textContent())!.replace(/[^0-9.]/g, ''))).toBeCloseTo(priceValue * 0.92, 2);
   await expect(async () => {

@@ -155,7 +155,10 @@ describe('password reset and change', () => {
     const token = tokenOf(linkIn(mail, '/reset-password'));
     const { getClient } = await import('../../src/server/db/client');
     const { hashToken } = await import('../../src/server/auth/tokens');
-    await getClient().execute({ sql: 'UPDATE email_tokens SET expires_at = ? WHERE token_hash = ?', args: [Date.now() - 1, hashToken(token)] });
+    await getClient().execute({
+      sql: 'UPDATE email_tokens SET expires_at = ? WHERE token_hash = ?',
+      args: [Date.now() - 1, hashToken(token)],
+    });
     const r = await c.post('/api/auth/reset', { token, password: 'too-late-pw-1' });
     expect(r.status).toBe(400);
     expect((await r.json()).error.code).toBe('invalid_token');

@@ -39,7 +39,17 @@ const mirror = (quantity: number, title: string) => ({
   priceCents: 100_000,
   currency: 'EUR',
   shipsTo: ['WORLD'],
-  specs: { diameterMm: 7.75, substrate: 'fused silica', rocMm: 100, designWavelengthNm: 852, bandMinNm: 830, bandMaxNm: 870, transmissionPpm: { value: 3 }, lossPpm: { value: 2 }, aoiDeg: 0 },
+  specs: {
+    diameterMm: 7.75,
+    substrate: 'fused silica',
+    rocMm: 100,
+    designWavelengthNm: 852,
+    bandMinNm: 830,
+    bandMaxNm: 870,
+    transmissionPpm: { value: 3 },
+    lossPpm: { value: 2 },
+    aoiDeg: 0,
+  },
 });
 
 async function liveListing(quantity: number, title: string): Promise<string> {
@@ -122,21 +132,58 @@ describe('checkout through the payment fake', () => {
     await buyer.post('/api/cart/items', { listingId, quantity: 1 });
     const { orderIds, sessionId } = await (await buyer.post('/api/checkout', {})).json();
     const { getClient } = await import('../../src/server/db/client');
-    const [checkoutId] = (await getClient().execute({ sql: 'SELECT checkout_id FROM orders WHERE id = ?', args: [orderIds[0]] })).rows.map((r) => String(r.checkout_id));
-    const event = { id: `evt_replay_${Date.now()}`, object: 'event', type: 'checkout.session.completed', created: Math.floor(Date.now() / 1000), livemode: false, data: { object: { id: sessionId, object: 'checkout.session', payment_status: 'paid', status: 'complete', payment_intent: 'pi_replayed', metadata: { checkoutId }, client_reference_id: checkoutId } } };
+    const [checkoutId] = (await getClient().execute({ sql: 'SELECT checkout_id FROM orders WHERE id = ?', args: [orderIds[0]] })).rows.map(
+      (r) => String(r.checkout_id),
+    );
+    const event = {
+      id: `evt_replay_${Date.now()}`,
+      object: 'event',
+      type: 'checkout.session.completed',
+      created: Math.floor(Date.now() / 1000),
+      livemode: false,
+      data: {
+        object: {
+          id: sessionId,
+          object: 'checkout.session',
+          payment_status: 'paid',
+          status: 'complete',
+          payment_intent: 'pi_replayed',
+          metadata: { checkoutId },
+          client_reference_id: checkoutId,
+        },
+      },
+    };
     const payload = JSON.stringify(event);
     const stripe = new Stripe('sk_test_x');
-    const bad = await fetch(`${app.origin}/api/webhooks/stripe`, { method: 'POST', headers: { 'content-type': 'application/json', 'stripe-signature': stripe.webhooks.generateTestHeaderString({ payload, secret: 'whsec_wrong' }) }, body: payload });
+    const bad = await fetch(`${app.origin}/api/webhooks/stripe`, {
+      method: 'POST',
+      headers: {
+        'content-type': 'application/json',
+        'stripe-signature': stripe.webhooks.generateTestHeaderString({ payload, secret: 'whsec_wrong' }),
+      },
+      body: payload,
+    });
     expect(bad.status).toBe(400);
     expect(await orderStatus(orderIds[0])).toBe('pending_payment');
     const answers = [];
     for (let i = 0; i < 5; i++) {
       const header = stripe.webhooks.generateTestHeaderString({ payload, secret: 'whsec_test' });
-      answers.push(await (await fetch(`${app.origin}/api/webhooks/stripe`, { method: 'POST', headers: { 'content-type': 'application/json', 'stripe-signature': header }, body: payload })).json());
+      answers.push(
+        await (
+          await fetch(`${app.origin}/api/webhooks/stripe`, {
+            method: 'POST',
+            headers: { 'content-type': 'application/json', 'stripe-signature': header },
+            body: payload,
+          })
+        ).json(),
+      );
     }
     expect(answers.map((a) => a.duplicate)).toEqual([false, true, true, true, true]);
     expect(await orderStatus(orderIds[0])).toBe('paid');
-    const log = await getClient().execute({ sql: "SELECT count(*) AS n FROM audit_log WHERE subject_id = ? AND action = 'order.paid'", args: [orderIds[0]] });
+    const log = await getClient().execute({
+      sql: "SELECT count(*) AS n FROM audit_log WHERE subject_id = ? AND action = 'order.paid'",
+      args: [orderIds[0]],
+    });
     expect(Number(log.rows[0]!.n)).toBe(1);
   });
 
@@ -170,7 +217,9 @@ describe('checkout through the payment fake', () => {
     const mod = await as('moderator');
     const tooMuch = await mod.post(`/api/orders/${orderIds[0]}/refund`, { amountCents: 100_001, reason: 'Too much' });
     expect(tooMuch.status).toBe(400);
-    const part = await (await mod.post(`/api/orders/${orderIds[0]}/refund`, { amountCents: 30_000, reason: 'Partial refund for the scratch' })).json();
+    const part = await (
+      await mod.post(`/api/orders/${orderIds[0]}/refund`, { amountCents: 30_000, reason: 'Partial refund for the scratch' })
+    ).json();
     expect(part.order.status).toBe('paid');
     expect(part.order.refundedCents).toBe(30_000);
     const rest = await (await mod.post(`/api/orders/${orderIds[0]}/refund`, { reason: 'Returned after all' })).json();

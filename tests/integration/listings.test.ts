@@ -56,7 +56,10 @@ describe('creating listings', () => {
 
   test('bad specs answer 400 with the field path named', async () => {
     const seller = await as('seller');
-    const r = await seller.post('/api/listings', mirror({ specs: { ...mirror().specs, transmissionPpm: { value: 999_000 }, lossPpm: { value: 2000 } } }));
+    const r = await seller.post(
+      '/api/listings',
+      mirror({ specs: { ...mirror().specs, transmissionPpm: { value: 999_000 }, lossPpm: { value: 2000 } } }),
+    );
     expect(r.status).toBe(400);
     const body = await r.json();
     expect(Object.keys(body.error.fields).some((k) => k.startsWith('specs.'))).toBe(true);
@@ -109,7 +112,10 @@ describe('lifecycle', () => {
 
     const noReason = await mod.post(`/api/moderation/listings/${id}`, { action: 'request-changes' });
     expect(noReason.status).toBe(400);
-    const changes = await mod.post(`/api/moderation/listings/${id}`, { action: 'request-changes', reason: 'Add the ring-down trace you mention.' });
+    const changes = await mod.post(`/api/moderation/listings/${id}`, {
+      action: 'request-changes',
+      reason: 'Add the ring-down trace you mention.',
+    });
     expect((await changes.json()).listing.status).toBe('changes-requested');
     const mail = await waitForMail(app.mailDir, 'member@demo.lightyard.example', /^Changes requested/);
     expect(mail.text).toContain('Add the ring-down trace you mention.');
@@ -145,7 +151,9 @@ describe('lifecycle', () => {
   test('a stale version is refused with 409 and changes nothing', async () => {
     const seller = await as('seller');
     const { id, listing } = await (await seller.post('/api/listings', mirror())).json();
-    expect((await seller.request('PATCH', `/api/listings/${id}`, { title: 'First edit of this title', version: listing.version })).status).toBe(200);
+    expect(
+      (await seller.request('PATCH', `/api/listings/${id}`, { title: 'First edit of this title', version: listing.version })).status,
+    ).toBe(200);
     const stale = await seller.request('PATCH', `/api/listings/${id}`, { title: 'Second edit of this title', version: listing.version });
     expect(stale.status).toBe(409);
     const now = await (await seller.get(`/api/listings/${id}`)).json();
@@ -206,7 +214,10 @@ describe('questions and reports', () => {
     expect((await member.post(`/api/threads/${threadId}/messages`, { body: 'Yes, at 780.2 nm in a 5 cm cavity.' })).status).toBe(201);
     await waitForMail(app.mailDir, 'buyer@demo.lightyard.example', /^Answer about Mirror with questions/);
     const thread = await (await buyer.get(`/api/threads/${threadId}/messages`)).json();
-    expect(thread.messages.map((m: { body: string }) => m.body)).toEqual(['Was the ring-down measured at 780 nm?', 'Yes, at 780.2 nm in a 5 cm cavity.']);
+    expect(thread.messages.map((m: { body: string }) => m.body)).toEqual([
+      'Was the ring-down measured at 780 nm?',
+      'Yes, at 780.2 nm in a 5 cm cavity.',
+    ]);
     expect((await (await as('seller2')).get(`/api/threads/${threadId}/messages`)).status).toBe(403);
     expect((await seller.post(`/api/listings/${id}/questions`, { body: 'Asking myself' })).status).toBe(409);
   });

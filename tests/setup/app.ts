@@ -50,7 +50,9 @@ async function waitUntilUp(origin: string, child: ChildProcess, log: () => strin
   throw new Error(`The app did not start:\n${log()}`);
 }
 
-export async function startTestApp(opts: { seed?: boolean; files?: boolean; env?: Record<string, string>; dir?: string; port?: number } = {}): Promise<TestApp> {
+export async function startTestApp(
+  opts: { seed?: boolean; files?: boolean; env?: Record<string, string>; dir?: string; port?: number } = {},
+): Promise<TestApp> {
   const dir = opts.dir ?? mkdtempSync(join(tmpdir(), 'lightyard-test-'));
   const mailDir = join(dir, 'mail');
   const port = opts.port ?? (await freePort());
@@ -58,7 +60,13 @@ export async function startTestApp(opts: { seed?: boolean; files?: boolean; env?
   const fakes = await startAllFakes({
     mail: { host: '127.0.0.1', port: 0, dir: mailDir },
     s3: { host: '127.0.0.1', port: 0, dir: join(dir, 's3'), bucket: 'lightyard', allowedOrigins: loopbackOrigins(origin) },
-    stripe: { host: '127.0.0.1', port: 0, dir: join(dir, 'stripe'), webhookUrl: `${origin}/api/webhooks/stripe`, webhookSecret: 'whsec_test' },
+    stripe: {
+      host: '127.0.0.1',
+      port: 0,
+      dir: join(dir, 'stripe'),
+      webhookUrl: `${origin}/api/webhooks/stripe`,
+      webhookSecret: 'whsec_test',
+    },
   });
   const env: Record<string, string> = {
     NODE_ENV: 'production',

@@ -18,7 +18,12 @@ export async function completeOnboarding(url: string): Promise<void> {
   const page = await (await fetch(url)).text();
   const action = page.match(/<form method="post" action="([^"]+)"/)?.[1];
   if (!action) throw new Error('No onboarding form on the page');
-  const r = await fetch(new URL(action.replace(/&amp;/g, '&'), url), { method: 'POST', redirect: 'manual', headers: { 'content-type': 'application/x-www-form-urlencoded' }, body: '' });
+  const r = await fetch(new URL(action.replace(/&amp;/g, '&'), url), {
+    method: 'POST',
+    redirect: 'manual',
+    headers: { 'content-type': 'application/x-www-form-urlencoded' },
+    body: '',
+  });
   if (r.status >= 400) throw new Error(`Onboarding failed: ${r.status}`);
 }
 

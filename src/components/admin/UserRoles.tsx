@@ -1,5 +1,12 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
+import {
+  createColumnHelper,
+  flexRender,
+  getCoreRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type SortingState,
+} from '@tanstack/react-table';
 import { useDeferredValue, useMemo, useState } from 'react';
 import { api, type ApiError } from '../../lib/api-client';
 import { ROLE_LABELS, ROLE_NAMES, type RoleName } from '../../lib/roles';
@@ -21,12 +28,18 @@ function RoleToggle({ user, role }: { user: UserRow; role: RoleName }) {
   const has = user.roles.includes(role);
   const m = useMutation<unknown, ApiError>({
     mutationFn: () =>
-      has ? api(`/api/admin/users/${user.id}/roles/${role}`, { method: 'DELETE' }) : api(`/api/admin/users/${user.id}/roles`, { body: { role } }),
+      has
+        ? api(`/api/admin/users/${user.id}/roles/${role}`, { method: 'DELETE' })
+        : api(`/api/admin/users/${user.id}/roles`, { body: { role } }),
     onSuccess: () =>
-      qc.setQueriesData<{ users: UserRow[] }>({ queryKey: ['admin-users'] }, (old) =>
-        old && {
-          users: old.users.map((u) => (u.id === user.id ? { ...u, roles: has ? u.roles.filter((r) => r !== role) : [...u.roles, role].sort() } : u)),
-        },
+      qc.setQueriesData<{ users: UserRow[] }>(
+        { queryKey: ['admin-users'] },
+        (old) =>
+          old && {
+            users: old.users.map((u) =>
+              u.id === user.id ? { ...u, roles: has ? u.roles.filter((r) => r !== role) : [...u.roles, role].sort() } : u,
+            ),
+          },
       ),
   });
   // Shown as changed while the request runs; the server's answer settles it.
@@ -34,7 +47,13 @@ function RoleToggle({ user, role }: { user: UserRow; role: RoleName }) {
   return (
     <span className="inline-flex flex-col">
       <label className="inline-flex items-center gap-1.5 text-sm">
-        <input type="checkbox" checked={checked} disabled={m.isPending} onChange={() => m.mutate()} aria-label={`${ROLE_LABELS[role]} role for ${user.email}`} />
+        <input
+          type="checkbox"
+          checked={checked}
+          disabled={m.isPending}
+          onChange={() => m.mutate()}
+          aria-label={`${ROLE_LABELS[role]} role for ${user.email}`}
+        />
         {ROLE_LABELS[role]}
       </label>
       {m.error && (
@@ -86,7 +105,14 @@ function Roles() {
       <label htmlFor="user-filter" className="field-label">
         Find people
       </label>
-      <input id="user-filter" className="field-input mb-4 max-w-sm" type="search" value={q} onChange={(e) => setQ(e.target.value)} placeholder="E-mail or name" />
+      <input
+        id="user-filter"
+        className="field-input mb-4 max-w-sm"
+        type="search"
+        value={q}
+        onChange={(e) => setQ(e.target.value)}
+        placeholder="E-mail or name"
+      />
       {users.error && <FormMessage kind="bad">{users.error.message}</FormMessage>}
       <div className="table-scroll">
         <table className="data-table">
@@ -94,7 +120,12 @@ function Roles() {
             {table.getHeaderGroups().map((hg) => (
               <tr key={hg.id}>
                 {hg.headers.map((h) => (
-                  <th key={h.id} aria-sort={h.column.getIsSorted() === 'asc' ? 'ascending' : h.column.getIsSorted() === 'desc' ? 'descending' : undefined}>
+                  <th
+                    key={h.id}
+                    aria-sort={
+                      h.column.getIsSorted() === 'asc' ? 'ascending' : h.column.getIsSorted() === 'desc' ? 'descending' : undefined
+                    }
+                  >
                     {h.column.getCanSort() ? (
                       <button type="button" onClick={h.column.getToggleSortingHandler()} className="uppercase">
                         {flexRender(h.column.columnDef.header, h.getContext())}

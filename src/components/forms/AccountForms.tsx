@@ -7,7 +7,12 @@ import { QueryRoot } from './QueryRoot';
 import { useApiForm } from './use-api-form';
 
 function Profile({ name }: { name: string }) {
-  const { form, mutation, onSubmit } = useApiForm({ schema: UpdateProfileSchema, path: '/api/me', method: 'PATCH', defaultValues: { name } });
+  const { form, mutation, onSubmit } = useApiForm({
+    schema: UpdateProfileSchema,
+    path: '/api/me',
+    method: 'PATCH',
+    defaultValues: { name },
+  });
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Profile">
       {mutation.isSuccess && <FormMessage kind="good">Saved.</FormMessage>}
@@ -31,8 +36,21 @@ function ChangePassword() {
     <form onSubmit={onSubmit} noValidate aria-label="Change password">
       {mutation.isSuccess && <FormMessage kind="good">Password changed. Your other sessions were signed out.</FormMessage>}
       {mutation.error && !mutation.error.fields && <FormMessage kind="bad">{mutation.error.message}</FormMessage>}
-      <Field label="Current password" type="password" autoComplete="current-password" error={errors.currentPassword?.message} {...form.register('currentPassword')} />
-      <Field label="New password" type="password" autoComplete="new-password" hint="At least 10 characters." error={errors.newPassword?.message} {...form.register('newPassword')} />
+      <Field
+        label="Current password"
+        type="password"
+        autoComplete="current-password"
+        error={errors.currentPassword?.message}
+        {...form.register('currentPassword')}
+      />
+      <Field
+        label="New password"
+        type="password"
+        autoComplete="new-password"
+        hint="At least 10 characters."
+        error={errors.newPassword?.message}
+        {...form.register('newPassword')}
+      />
       <button type="submit" className="btn btn-quiet" disabled={mutation.isPending}>
         Change password
       </button>
@@ -54,7 +72,11 @@ function Resend() {
 }
 
 function CreateLab() {
-  const { form, mutation, onSubmit } = useApiForm<{ name: string; institute: string; country: string }, { name: string; institute: string; country: string }, { lab: { slug: string } }>({
+  const { form, mutation, onSubmit } = useApiForm<
+    { name: string; institute: string; country: string },
+    { name: string; institute: string; country: string },
+    { lab: { slug: string } }
+  >({
     schema: CreateLabSchema,
     path: '/api/labs',
     onSuccess: (res) => window.location.assign(`/labs/${res.lab.slug}`),
@@ -65,7 +87,14 @@ function CreateLab() {
       {mutation.error && !mutation.error.fields && <FormMessage kind="bad">{mutation.error.message}</FormMessage>}
       <Field label="Lab name" error={errors.name?.message} {...form.register('name')} />
       <Field label="Institute" error={errors.institute?.message} {...form.register('institute')} />
-      <Field label="Country" hint="Two-letter code, e.g. DE, US, JP." maxLength={2} className="field-input w-24 uppercase" error={errors.country?.message} {...form.register('country')} />
+      <Field
+        label="Country"
+        hint="Two-letter code, e.g. DE, US, JP."
+        maxLength={2}
+        className="field-input w-24 uppercase"
+        error={errors.country?.message}
+        {...form.register('country')}
+      />
       <button type="submit" className="btn btn-primary" disabled={mutation.isPending}>
         Create lab
       </button>
@@ -74,14 +103,30 @@ function CreateLab() {
 }
 
 export function ProfileForm(props: { name: string }) {
-  return <QueryRoot><Profile {...props} /></QueryRoot>;
+  return (
+    <QueryRoot>
+      <Profile {...props} />
+    </QueryRoot>
+  );
 }
 export function ChangePasswordForm() {
-  return <QueryRoot><ChangePassword /></QueryRoot>;
+  return (
+    <QueryRoot>
+      <ChangePassword />
+    </QueryRoot>
+  );
 }
 export function ResendVerification() {
-  return <QueryRoot><Resend /></QueryRoot>;
+  return (
+    <QueryRoot>
+      <Resend />
+    </QueryRoot>
+  );
 }
 export function CreateLabForm() {
-  return <QueryRoot><CreateLab /></QueryRoot>;
+  return (
+    <QueryRoot>
+      <CreateLab />
+    </QueryRoot>
+  );
 }

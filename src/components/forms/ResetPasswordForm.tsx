@@ -17,7 +17,14 @@ function Reset({ token }: { token: string }) {
       {mutation.error && !mutation.error.fields && <FormMessage kind="bad">{mutation.error.message}</FormMessage>}
       {form.formState.errors.token && <FormMessage kind="bad">{form.formState.errors.token.message}</FormMessage>}
       <input type="hidden" {...form.register('token')} />
-      <Field label="New password" type="password" autoComplete="new-password" hint="At least 10 characters." error={form.formState.errors.password?.message} {...form.register('password')} />
+      <Field
+        label="New password"
+        type="password"
+        autoComplete="new-password"
+        hint="At least 10 characters."
+        error={form.formState.errors.password?.message}
+        {...form.register('password')}
+      />
       <button type="submit" className="btn btn-primary" disabled={mutation.isPending}>
         Set new password
       </button>

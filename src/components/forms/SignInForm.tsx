@@ -26,7 +26,13 @@ function SignIn({ next }: { next?: string }) {
         </FormMessage>
       )}
       <Field label="E-mail address" type="email" autoComplete="email" error={errors.email?.message} {...form.register('email')} />
-      <Field label="Password" type="password" autoComplete="current-password" error={errors.password?.message} {...form.register('password')} />
+      <Field
+        label="Password"
+        type="password"
+        autoComplete="current-password"
+        error={errors.password?.message}
+        {...form.register('password')}
+      />
       <div className="flex flex-wrap items-center gap-4">
         <button type="submit" className="btn btn-primary" disabled={mutation.isPending || mutation.isSuccess}>
           {mutation.isPending || mutation.isSuccess ? 'Signing in…' : 'Sign in'}

@@ -21,7 +21,8 @@ export function useApiForm<TIn extends FieldValues, TOut, TRes = unknown>(opts: 
     mode: 'onTouched',
   });
   const mutation = useMutation<TRes, ApiError, TOut>({
-    mutationFn: (values) => api<TRes>(typeof opts.path === 'function' ? opts.path(values) : opts.path, { method: opts.method ?? 'POST', body: values }),
+    mutationFn: (values) =>
+      api<TRes>(typeof opts.path === 'function' ? opts.path(values) : opts.path, { method: opts.method ?? 'POST', body: values }),
     onSuccess: (res, values) => opts.onSuccess?.(res, values),
     onError: (err) => {
       for (const [name, message] of Object.entries(err.fields ?? {})) {

@@ -13,7 +13,9 @@ function Invite({ labSlug }: { labSlug: string }) {
   });
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Invite a member">
-      {mutation.isSuccess && <FormMessage kind="good">Invitation sent to {mutation.data.invite.email}. Reload to see it below.</FormMessage>}
+      {mutation.isSuccess && (
+        <FormMessage kind="good">Invitation sent to {mutation.data.invite.email}. Reload to see it below.</FormMessage>
+      )}
       {mutation.error && !mutation.error.fields && <FormMessage kind="bad">{mutation.error.message}</FormMessage>}
       <Field label="Colleague's e-mail address" type="email" error={form.formState.errors.email?.message} {...form.register('email')} />
       <button type="submit" className="btn btn-primary" disabled={mutation.isPending}>

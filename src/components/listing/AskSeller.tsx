@@ -7,7 +7,10 @@ import { QueryRoot } from '../forms/QueryRoot';
 function Ask({ listingId, what }: { listingId: string; what: 'question' | 'report' }) {
   const [text, setText] = useState('');
   const m = useMutation<{ threadId?: string }, ApiError>({
-    mutationFn: () => api(`/api/listings/${listingId}/${what === 'question' ? 'questions' : 'reports'}`, { body: what === 'question' ? { body: text } : { reason: text } }),
+    mutationFn: () =>
+      api(`/api/listings/${listingId}/${what === 'question' ? 'questions' : 'reports'}`, {
+        body: what === 'question' ? { body: text } : { reason: text },
+      }),
     onSuccess: () => setText(''),
   });
   const id = `${what}-${listingId}`;

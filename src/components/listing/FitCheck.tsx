@@ -36,30 +36,71 @@ interface Mode {
 function cavityMode(c: Extract<FitCandidate, { kind: 'mirror' }>, quantity: number): Mode {
   return {
     // a default length the radii can hold: 50 mm, or shorter than the mirrors' radius
-    defaults: { wavelengthNm: String(c.spec.designWavelengthNm), lengthMm: String(c.spec.rocMm ? Math.min(50, Math.round(c.spec.rocMm * 0.8)) : 50), targetKind: 'finesse', target: '100000', configuration: quantity >= 2 ? 'pair' : 'with-own-mirror', ownR: '99.999', ownRocMm: '', extraLossPpm: '0', atomNm: '', atomGammaMHz: '' },
+    defaults: {
+      wavelengthNm: String(c.spec.designWavelengthNm),
+      lengthMm: String(c.spec.rocMm ? Math.min(50, Math.round(c.spec.rocMm * 0.8)) : 50),
+      targetKind: 'finesse',
+      target: '100000',
+      configuration: quantity >= 2 ? 'pair' : 'with-own-mirror',
+      ownR: '99.999',
+      ownRocMm: '',
+      extraLossPpm: '0',
+      atomNm: '',
+      atomGammaMHz: '',
+    },
     fields: [
       { key: 'wavelengthNm', label: 'Wavelength', unit: 'nm' },
       { key: 'lengthMm', label: 'Cavity length', unit: 'mm' },
-      { key: 'targetKind', label: 'Goal', options: [ { value: 'finesse', label: 'finesse at least' }, { value: 'linewidth', label: 'linewidth at most (kHz)' }, { value: 'storage-time', label: 'storage time at least (µs)' } ] },
+      {
+        key: 'targetKind',
+        label: 'Goal',
+        options: [
+          { value: 'finesse', label: 'finesse at least' },
+          { value: 'linewidth', label: 'linewidth at most (kHz)' },
+          { value: 'storage-time', label: 'storage time at least (µs)' },
+        ],
+      },
       { key: 'target', label: 'Goal value' },
-      { key: 'configuration', label: 'Mirrors', options: [...(quantity >= 2 ? [{ value: 'pair', label: 'a pair from this listing' }] : []), { value: 'with-own-mirror', label: 'one of these with my own mirror' }] },
+      {
+        key: 'configuration',
+        label: 'Mirrors',
+        options: [
+          ...(quantity >= 2 ? [{ value: 'pair', label: 'a pair from this listing' }] : []),
+          { value: 'with-own-mirror', label: 'one of these with my own mirror' },
+        ],
+      },
       { key: 'ownR', label: 'My mirror: reflectivity', unit: '%', show: (v) => v.configuration === 'with-own-mirror' },
-      { key: 'ownRocMm', label: 'My mirror: radius of curvature (empty = flat)', unit: 'mm', show: (v) => v.configuration === 'with-own-mirror' },
+      {
+        key: 'ownRocMm',
+        label: 'My mirror: radius of curvature (empty = flat)',
+        unit: 'mm',
+        show: (v) => v.configuration === 'with-own-mirror',
+      },
       { key: 'extraLossPpm', label: 'Extra round-trip loss', unit: 'ppm' },
       { key: 'atomNm', label: 'Atom line (optional): wavelength', unit: 'nm' },
       { key: 'atomGammaMHz', label: 'Atom line: natural linewidth Γ/2π', unit: 'MHz' },
     ],
-    label: (v) => (v.targetKind === 'finesse' ? 'Predicted finesse' : v.targetKind === 'linewidth' ? 'Predicted linewidth' : 'Predicted storage time'),
+    label: (v) =>
+      v.targetKind === 'finesse' ? 'Predicted finesse' : v.targetKind === 'linewidth' ? 'Predicted linewidth' : 'Predicted storage time',
     run: (v) => {
       const t = n(v, 'target');
       const goal: CavityGoal = {
         wavelengthNm: n(v, 'wavelengthNm'),
         lengthM: n(v, 'lengthMm') / 1000,
-        target: v.targetKind === 'finesse' ? { kind: 'finesse', value: t } : v.targetKind === 'linewidth' ? { kind: 'linewidth', hz: t * 1e3 } : { kind: 'storage-time', s: t * 1e-6 },
+        target:
+          v.targetKind === 'finesse'
+            ? { kind: 'finesse', value: t }
+            : v.targetKind === 'linewidth'
+              ? { kind: 'linewidth', hz: t * 1e3 }
+              : { kind: 'storage-time', s: t * 1e-6 },
         configuration: v.configuration === 'pair' ? 'pair' : 'with-own-mirror',
         extraLossPpm: opt(v, 'extraLossPpm') ?? 0,
-        ...(v.configuration === 'with-own-mirror' ? { ownMirror: { reflectivity: n(v, 'ownR') / 100, rocMm: opt(v, 'ownRocMm') ?? null } } : {}),
-        ...(opt(v, 'atomNm') && opt(v, 'atomGammaMHz') ? { atom: { wavelengthNm: n(v, 'atomNm'), gammaHz: n(v, 'atomGammaMHz') * 1e6 } } : {}),
+        ...(v.configuration === 'with-own-mirror'
+          ? { ownMirror: { reflectivity: n(v, 'ownR') / 100, rocMm: opt(v, 'ownRocMm') ?? null } }
+          : {}),
+        ...(opt(v, 'atomNm') && opt(v, 'atomGammaMHz')
+          ? { atom: { wavelengthNm: n(v, 'atomNm'), gammaHz: n(v, 'atomGammaMHz') * 1e6 } }
+          : {}),
       };
       return evaluateCavityGoal(goal, c.spec);
     },
@@ -68,12 +109,32 @@ function cavityMode(c: Extract<FitCandidate, { kind: 'mirror' }>, quantity: numb
 
 function squeezingMode(c: Extract<FitCandidate, { kind: 'photodiode' }>): Mode {
   return {
-    defaults: { wavelengthNm: String(c.spec.wavelengthNm ?? 1550), targetDb: '10', sidebandMHz: '5', sourceKind: 'opo', initialDb: '15', pump: '0.8', opoLwMHz: '60', escape: '98', propagation: '98', visibility: '99', loMw: '5', phaseMrad: '10' },
+    defaults: {
+      wavelengthNm: String(c.spec.wavelengthNm ?? 1550),
+      targetDb: '10',
+      sidebandMHz: '5',
+      sourceKind: 'opo',
+      initialDb: '15',
+      pump: '0.8',
+      opoLwMHz: '60',
+      escape: '98',
+      propagation: '98',
+      visibility: '99',
+      loMw: '5',
+      phaseMrad: '10',
+    },
     fields: [
       { key: 'wavelengthNm', label: 'Wavelength', unit: 'nm' },
       { key: 'targetDb', label: 'Goal: measured squeezing', unit: 'dB' },
       { key: 'sidebandMHz', label: 'Sideband frequency', unit: 'MHz' },
-      { key: 'sourceKind', label: 'Source', options: [ { value: 'opo', label: 'OPO (pump parameter, linewidth)' }, { value: 'initial', label: 'initial squeezing' } ] },
+      {
+        key: 'sourceKind',
+        label: 'Source',
+        options: [
+          { value: 'opo', label: 'OPO (pump parameter, linewidth)' },
+          { value: 'initial', label: 'initial squeezing' },
+        ],
+      },
       { key: 'initialDb', label: 'Initial squeezing', unit: 'dB', show: (v) => v.sourceKind === 'initial' },
       { key: 'pump', label: 'Pump parameter x', show: (v) => v.sourceKind === 'opo' },
       { key: 'opoLwMHz', label: 'OPO linewidth (FWHM)', unit: 'MHz', show: (v) => v.sourceKind === 'opo' },
@@ -89,7 +150,10 @@ function squeezingMode(c: Extract<FitCandidate, { kind: 'photodiode' }>): Mode {
         wavelengthNm: n(v, 'wavelengthNm'),
         targetDb: n(v, 'targetDb'),
         sidebandHz: n(v, 'sidebandMHz') * 1e6,
-        source: v.sourceKind === 'initial' ? { kind: 'initial', initialDb: n(v, 'initialDb') } : { kind: 'opo', pumpParameter: n(v, 'pump'), linewidthHz: n(v, 'opoLwMHz') * 1e6 },
+        source:
+          v.sourceKind === 'initial'
+            ? { kind: 'initial', initialDb: n(v, 'initialDb') }
+            : { kind: 'opo', pumpParameter: n(v, 'pump'), linewidthHz: n(v, 'opoLwMHz') * 1e6 },
         escapeEfficiency: n(v, 'escape') / 100,
         propagationEfficiency: n(v, 'propagation') / 100,
         visibility: n(v, 'visibility') / 100,
@@ -103,10 +167,26 @@ function squeezingMode(c: Extract<FitCandidate, { kind: 'photodiode' }>): Mode {
 
 function countingMode(c: Extract<FitCandidate, { kind: 'counter' }>): Mode {
   return {
-    defaults: { wavelengthNm: String(c.spec.wavelengthNm ?? 1550), targetKind: 'eberhard', heralding: '70', optical: '90', rateKHz: '100', windowNs: '1', carMin: '100' },
+    defaults: {
+      wavelengthNm: String(c.spec.wavelengthNm ?? 1550),
+      targetKind: 'eberhard',
+      heralding: '70',
+      optical: '90',
+      rateKHz: '100',
+      windowNs: '1',
+      carMin: '100',
+    },
     fields: [
       { key: 'wavelengthNm', label: 'Wavelength', unit: 'nm' },
-      { key: 'targetKind', label: 'Goal', options: [ { value: 'eberhard', label: 'Bell test, Eberhard (2/3)' }, { value: 'chsh', label: 'Bell test, CHSH (82.8 %)' }, { value: 'heralding', label: 'heralding efficiency at least' } ] },
+      {
+        key: 'targetKind',
+        label: 'Goal',
+        options: [
+          { value: 'eberhard', label: 'Bell test, Eberhard (2/3)' },
+          { value: 'chsh', label: 'Bell test, CHSH (82.8 %)' },
+          { value: 'heralding', label: 'heralding efficiency at least' },
+        ],
+      },
       { key: 'heralding', label: 'Heralding efficiency', unit: '%', show: (v) => v.targetKind === 'heralding' },
       { key: 'optical', label: 'Your optical efficiency per arm', unit: '%' },
       { key: 'rateKHz', label: 'Photon rate at each detector', unit: 'k/s' },
@@ -117,7 +197,10 @@ function countingMode(c: Extract<FitCandidate, { kind: 'counter' }>): Mode {
     run: (v) => {
       const goal: CountingGoal = {
         wavelengthNm: n(v, 'wavelengthNm'),
-        target: v.targetKind === 'heralding' ? { kind: 'heralding', efficiency: n(v, 'heralding') / 100 } : { kind: 'bell', test: v.targetKind === 'chsh' ? 'chsh' : 'eberhard' },
+        target:
+          v.targetKind === 'heralding'
+            ? { kind: 'heralding', efficiency: n(v, 'heralding') / 100 }
+            : { kind: 'bell', test: v.targetKind === 'chsh' ? 'chsh' : 'eberhard' },
         opticalEfficiency: n(v, 'optical') / 100,
         ...(opt(v, 'rateKHz') ? { countRateHz: n(v, 'rateKHz') * 1e3 } : {}),
         ...(opt(v, 'windowNs') ? { coincidenceWindowS: n(v, 'windowNs') * 1e-9 } : {}),
@@ -186,7 +269,12 @@ export default function FitCheck({ candidate, quantity }: { candidate: FitCandid
                 {f.label}
               </label>
               {f.options ? (
-                <select id={`fc-${f.key}`} className="field-input" value={values[f.key]} onChange={(e) => setValues({ ...values, [f.key]: e.target.value })}>
+                <select
+                  id={`fc-${f.key}`}
+                  className="field-input"
+                  value={values[f.key]}
+                  onChange={(e) => setValues({ ...values, [f.key]: e.target.value })}
+                >
                   {f.options.map((o) => (
                     <option key={o.value} value={o.value}>
                       {o.label}
@@ -195,7 +283,13 @@ export default function FitCheck({ candidate, quantity }: { candidate: FitCandid
                 </select>
               ) : (
                 <div className="flex">
-                  <input id={`fc-${f.key}`} inputMode="decimal" className={`field-input num ${f.unit ? 'rounded-r-none' : ''}`} value={values[f.key] ?? ''} onChange={(e) => setValues({ ...values, [f.key]: e.target.value })} />
+                  <input
+                    id={`fc-${f.key}`}
+                    inputMode="decimal"
+                    className={`field-input num ${f.unit ? 'rounded-r-none' : ''}`}
+                    value={values[f.key] ?? ''}
+                    onChange={(e) => setValues({ ...values, [f.key]: e.target.value })}
+                  />
                   {f.unit && <span className="rounded-r-sm border border-l-0 border-rule-strong bg-paper px-2 py-2 text-sm">{f.unit}</span>}
                 </div>
               )}
@@ -203,7 +297,11 @@ export default function FitCheck({ candidate, quantity }: { candidate: FitCandid
           ))}
       </div>
       <div aria-live="polite">
-        {outcome && 'error' in outcome ? <p className="notice notice-bad">{outcome.error}</p> : outcome ? <FitReport result={outcome.result} figureLabel={mode.label(values)} /> : null}
+        {outcome && 'error' in outcome ? (
+          <p className="notice notice-bad">{outcome.error}</p>
+        ) : outcome ? (
+          <FitReport result={outcome.result} figureLabel={mode.label(values)} />
+        ) : null}
       </div>
     </div>
   );

@@ -25,7 +25,10 @@ function headroomText(r: GoalResult): string {
 /** The fit report: the asked-for figure first and large, then worst case, headroom against the goal, reasons, formula. */
 export function FitReport({ result, figureLabel }: { result: GoalResult; figureLabel: string }) {
   const v = VERDICT[result.verdict];
-  const bar = result.worst !== null && result.goal !== null && result.goal > 0 ? Math.max(0, Math.min(2, result.unit === 'dB' ? result.worst / result.goal : result.headroom !== null ? 1 + result.headroom : 0)) : null;
+  const bar =
+    result.worst !== null && result.goal !== null && result.goal > 0
+      ? Math.max(0, Math.min(2, result.unit === 'dB' ? result.worst / result.goal : result.headroom !== null ? 1 + result.headroom : 0))
+      : null;
   return (
     <div className="rounded-md border border-rule bg-white p-4" data-testid="fit-report" data-verdict={result.verdict}>
       <p className="text-sm text-ink-soft">{figureLabel}</p>
@@ -41,7 +44,10 @@ export function FitReport({ result, figureLabel }: { result: GoalResult; figureL
       </p>
       {bar !== null && (
         <div className="relative mt-2 h-2 rounded-sm bg-paper" aria-hidden="true">
-          <div className={`h-2 rounded-sm ${result.verdict === 'fits' ? 'bg-good' : result.verdict === 'marginal' ? 'bg-warn' : 'bg-bad'}`} style={{ width: `${(bar / 2) * 100}%` }} />
+          <div
+            className={`h-2 rounded-sm ${result.verdict === 'fits' ? 'bg-good' : result.verdict === 'marginal' ? 'bg-warn' : 'bg-bad'}`}
+            style={{ width: `${(bar / 2) * 100}%` }}
+          />
           <div className="absolute top-[-3px] h-3.5 w-px bg-ink" style={{ left: '50%' }} title="goal" />
         </div>
       )}

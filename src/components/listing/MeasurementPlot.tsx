@@ -7,15 +7,24 @@ export default function MeasurementPlot({ data, filename }: { data: MeasurementD
   if (data.kind === 'ringdown') {
     const { fit, figures } = data;
     const t = data.points.map((p) => p.timeS * 1e6);
-    const model = (timeS: number) => (timeS < fit.fitStartS ? null : fit.amplitude * Math.exp(-(timeS - fit.fitStartS) / fit.tauS) + fit.offset);
+    const model = (timeS: number) =>
+      timeS < fit.fitStartS ? null : fit.amplitude * Math.exp(-(timeS - fit.fitStartS) / fit.tauS) + fit.offset;
     return (
       <div data-testid="measurement-ringdown">
         <p className="text-sm">
-          Ring-down fit: τ = <span className="num font-semibold" data-testid="ringdown-tau">{formatSI(fit.tauS, 's')}</span> ± {formatSI(2 * fit.tauUncertaintyS, 's')} (2σ)
+          Ring-down fit: τ ={' '}
+          <span className="num font-semibold" data-testid="ringdown-tau">
+            {formatSI(fit.tauS, 's')}
+          </span>{' '}
+          ± {formatSI(2 * fit.tauUncertaintyS, 's')} (2σ)
           {figures && (
             <>
               {' '}
-              · measured finesse <span className="num font-semibold" data-testid="ringdown-finesse">{formatCount(figures.finesse.value)}</span> ± {formatCount(2 * figures.finesse.uncertainty, 2)} · loss per mirror {formatCount(figures.perMirrorLoss.value * 1e6)}
+              · measured finesse{' '}
+              <span className="num font-semibold" data-testid="ringdown-finesse">
+                {formatCount(figures.finesse.value)}
+              </span>{' '}
+              ± {formatCount(2 * figures.finesse.uncertainty, 2)} · loss per mirror {formatCount(figures.perMirrorLoss.value * 1e6)}
               {'\u2009'}ppm, for a {formatSI(figures.lengthM, 'm')} cavity
             </>
           )}
@@ -41,7 +50,9 @@ export default function MeasurementPlot({ data, filename }: { data: MeasurementD
         ? [{ label: 'reflectance (ppm)', values: data.points.map((p) => ('reflectancePpm' in p ? p.reflectancePpm : null)) }]
         : [
             { label: 'transmission (ppm)', values: data.points.map((p) => ('transmissionPpm' in p ? p.transmissionPpm : null)) },
-            ...(data.quantity === 'transmission-loss' ? [{ label: 'loss (ppm)', values: data.points.map((p) => ('lossPpm' in p ? p.lossPpm : null)) }] : []),
+            ...(data.quantity === 'transmission-loss'
+              ? [{ label: 'loss (ppm)', values: data.points.map((p) => ('lossPpm' in p ? p.lossPpm : null)) }]
+              : []),
           ];
     return <Plot title={`Measured spectrum (${filename})`} x={x} series={series} xLabel="wavelength (nm)" yLabel="ppm" logY />;
   }

@@ -32,7 +32,8 @@ function Panel({ listingId, reviewable, ...initial }: Props) {
     onSuccess: () => window.location.assign('/moderation'),
   });
   const flags = useMutation<unknown, ApiError>({
-    mutationFn: () => api(`/api/moderation/listings/${listingId}/flags`, { body: { hazards, exportControlled, exportNote: exportNote || null } }),
+    mutationFn: () =>
+      api(`/api/moderation/listings/${listingId}/flags`, { body: { hazards, exportControlled, exportNote: exportNote || null } }),
   });
   return (
     <div className="space-y-5">
@@ -41,13 +42,18 @@ function Panel({ listingId, reviewable, ...initial }: Props) {
         <div className="flex flex-wrap gap-x-4 gap-y-1">
           {HAZARDS.map((h) => (
             <label key={h} className="flex items-center gap-1.5 text-sm">
-              <input type="checkbox" checked={hazards.includes(h)} onChange={(e) => setHazards(e.target.checked ? [...hazards, h] : hazards.filter((x) => x !== h))} />
+              <input
+                type="checkbox"
+                checked={hazards.includes(h)}
+                onChange={(e) => setHazards(e.target.checked ? [...hazards, h] : hazards.filter((x) => x !== h))}
+              />
               {HAZARD_LABELS[h]}
             </label>
           ))}
         </div>
         <label className="mt-3 flex items-center gap-1.5 text-sm">
-          <input type="checkbox" checked={exportControlled} onChange={(e) => setExport(e.target.checked)} /> Export-controlled (buyers must give an end-use statement)
+          <input type="checkbox" checked={exportControlled} onChange={(e) => setExport(e.target.checked)} /> Export-controlled (buyers must
+          give an end-use statement)
         </label>
         {exportControlled && (
           <div className="mt-2">
@@ -64,24 +70,24 @@ function Panel({ listingId, reviewable, ...initial }: Props) {
         </button>
       </fieldset>
       {reviewable && (
-      <div>
-        <label className="field-label" htmlFor="reason">
-          Reason for the seller (needed to request changes or reject)
-        </label>
-        <textarea id="reason" className="field-input min-h-24" value={reason} onChange={(e) => setReason(e.target.value)} />
-        {decide.error && <FormMessage kind="bad">{decide.error.fields?.reason ?? decide.error.message}</FormMessage>}
-        <div className="mt-3 flex flex-wrap gap-3">
-          <button type="button" className="btn btn-primary" disabled={decide.isPending} onClick={() => decide.mutate('approve')}>
-            Approve
-          </button>
-          <button type="button" className="btn btn-quiet" disabled={decide.isPending} onClick={() => decide.mutate('request-changes')}>
-            Request changes
-          </button>
-          <button type="button" className="btn btn-quiet text-bad" disabled={decide.isPending} onClick={() => decide.mutate('reject')}>
-            Reject
-          </button>
+        <div>
+          <label className="field-label" htmlFor="reason">
+            Reason for the seller (needed to request changes or reject)
+          </label>
+          <textarea id="reason" className="field-input min-h-24" value={reason} onChange={(e) => setReason(e.target.value)} />
+          {decide.error && <FormMessage kind="bad">{decide.error.fields?.reason ?? decide.error.message}</FormMessage>}
+          <div className="mt-3 flex flex-wrap gap-3">
+            <button type="button" className="btn btn-primary" disabled={decide.isPending} onClick={() => decide.mutate('approve')}>
+              Approve
+            </button>
+            <button type="button" className="btn btn-quiet" disabled={decide.isPending} onClick={() => decide.mutate('request-changes')}>
+              Request changes
+            </button>
+            <button type="button" className="btn btn-quiet text-bad" disabled={decide.isPending} onClick={() => decide.mutate('reject')}>
+              Reject
+            </button>
+          </div>
         </div>
-      </div>
       )}
     </div>
   );

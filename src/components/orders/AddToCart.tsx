@@ -20,7 +20,15 @@ function Add({ listingId, available }: { listingId: string; available: number })
           <label htmlFor="qty" className="field-label">
             Quantity
           </label>
-          <input id="qty" type="number" min={1} max={available} className="field-input num w-20" value={qty} onChange={(e) => setQty(Math.max(1, Math.min(available, Number(e.target.value) || 1)))} />
+          <input
+            id="qty"
+            type="number"
+            min={1}
+            max={available}
+            className="field-input num w-20"
+            value={qty}
+            onChange={(e) => setQty(Math.max(1, Math.min(available, Number(e.target.value) || 1)))}
+          />
         </div>
         <button type="button" className="btn btn-primary" onClick={() => m.mutate()} disabled={m.isPending}>
           Add to cart

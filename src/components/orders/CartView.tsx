@@ -21,10 +21,16 @@ interface CartItem {
 
 function Cart({ defaultRegion }: { defaultRegion: Region | null }) {
   const qc = useQueryClient();
-  const cart = useQuery<{ items: CartItem[]; totals: Record<string, number> }, ApiError>({ queryKey: ['cart'], queryFn: () => api('/api/cart') });
+  const cart = useQuery<{ items: CartItem[]; totals: Record<string, number> }, ApiError>({
+    queryKey: ['cart'],
+    queryFn: () => api('/api/cart'),
+  });
   const [shipTo, setShipTo] = useState<Region | ''>(defaultRegion ?? '');
   const [endUse, setEndUse] = useState<Record<string, string>>({});
-  const remove = useMutation<unknown, ApiError, string>({ mutationFn: (id) => api(`/api/cart/items/${id}`, { method: 'DELETE' }), onSuccess: () => qc.invalidateQueries({ queryKey: ['cart'] }) });
+  const remove = useMutation<unknown, ApiError, string>({
+    mutationFn: (id) => api(`/api/cart/items/${id}`, { method: 'DELETE' }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: ['cart'] }),
+  });
   const checkout = useMutation<{ checkoutUrl: string }, ApiError>({
     mutationFn: () => api('/api/checkout', { body: { ...(shipTo ? { shipTo } : {}), ...(Object.keys(endUse).length ? { endUse } : {}) } }),
     onSuccess: (r) => window.location.assign(r.checkoutUrl),
@@ -32,7 +38,12 @@ function Cart({ defaultRegion }: { defaultRegion: Region | null }) {
   if (cart.isPending) return <p>Loading your cart…</p>;
   if (cart.error) return <FormMessage kind="bad">{cart.error.message}</FormMessage>;
   const items = cart.data.items;
-  if (!items.length) return <p className="notice">Your cart is empty. <a href="/search">Find parts</a></p>;
+  if (!items.length)
+    return (
+      <p className="notice">
+        Your cart is empty. <a href="/search">Find parts</a>
+      </p>
+    );
   const labs = [...new Map(items.map((i) => [i.lab.id, i.lab.name])).entries()];
   return (
     <div className="space-y-5">
@@ -63,12 +74,24 @@ function Cart({ defaultRegion }: { defaultRegion: Region | null }) {
                           <label className="field-label" htmlFor={`eu-${i.listingId}`}>
                             End-use statement (export-controlled part)
                           </label>
-                          <textarea id={`eu-${i.listingId}`} className="field-input min-h-16" value={endUse[i.listingId] ?? ''} onChange={(e) => setEndUse({ ...endUse, [i.listingId]: e.target.value })} />
-                          <p className="field-hint">Who uses it, where, for what. Your export-control office and the seller’s decide; see the <a href="/cautions#export">cautions</a>.</p>
-                          {checkout.error?.fields?.[`endUse.${i.listingId}`] && <p className="field-error">{checkout.error.fields[`endUse.${i.listingId}`]}</p>}
+                          <textarea
+                            id={`eu-${i.listingId}`}
+                            className="field-input min-h-16"
+                            value={endUse[i.listingId] ?? ''}
+                            onChange={(e) => setEndUse({ ...endUse, [i.listingId]: e.target.value })}
+                          />
+                          <p className="field-hint">
+                            Who uses it, where, for what. Your export-control office and the seller’s decide; see the{' '}
+                            <a href="/cautions#export">cautions</a>.
+                          </p>
+                          {checkout.error?.fields?.[`endUse.${i.listingId}`] && (
+                            <p className="field-error">{checkout.error.fields[`endUse.${i.listingId}`]}</p>
+                          )}
                         </div>
                       )}
-                      {checkout.error?.fields?.[`items.${i.listingId}`] && <p className="field-error">{checkout.error.fields[`items.${i.listingId}`]}</p>}
+                      {checkout.error?.fields?.[`items.${i.listingId}`] && (
+                        <p className="field-error">{checkout.error.fields[`items.${i.listingId}`]}</p>
+                      )}
                     </td>
                     <td className="num text-right">{i.quantity}</td>
                     <td className="num text-right">{formatMoney(i.unitPriceCents * i.quantity, i.currency)}</td>
@@ -96,11 +119,23 @@ function Cart({ defaultRegion }: { defaultRegion: Region | null }) {
           ))}
         </select>
         <p className="mt-3 text-lg font-semibold num">
-          Total {Object.entries(cart.data.totals).map(([c, v]) => formatMoney(v, c)).join(' + ')}
+          Total{' '}
+          {Object.entries(cart.data.totals)
+            .map(([c, v]) => formatMoney(v, c))
+            .join(' + ')}
         </p>
-        <p className="field-hint">Lightyard holds your payment until you confirm the part arrived (or the 14-day inspection window ends). One order per lab.</p>
-        {checkout.error && !Object.keys(checkout.error.fields ?? {}).some((k) => k.startsWith('items.') || k.startsWith('endUse.')) && <FormMessage kind="bad">{checkout.error.message}</FormMessage>}
-        <button type="button" className="btn btn-primary mt-3" onClick={() => checkout.mutate()} disabled={checkout.isPending || checkout.isSuccess}>
+        <p className="field-hint">
+          Lightyard holds your payment until you confirm the part arrived (or the 14-day inspection window ends). One order per lab.
+        </p>
+        {checkout.error && !Object.keys(checkout.error.fields ?? {}).some((k) => k.startsWith('items.') || k.startsWith('endUse.')) && (
+          <FormMessage kind="bad">{checkout.error.message}</FormMessage>
+        )}
+        <button
+          type="button"
+          className="btn btn-primary mt-3"
+          onClick={() => checkout.mutate()}
+          disabled={checkout.isPending || checkout.isSuccess}
+        >
           {checkout.isPending || checkout.isSuccess ? 'Opening the payment page…' : 'Check out and pay'}
         </button>
       </section>

@@ -18,10 +18,17 @@ function Actions({ orderId, side, status, staff, remainingCents }: Props) {
   const [reason, setReason] = useState('');
   const [amount, setAmount] = useState('');
   const done = () => window.location.reload();
-  const ship = useMutation<unknown, ApiError>({ mutationFn: () => api(`/api/orders/${orderId}/ship`, { body: { carrier, trackingNumber: tracking } }), onSuccess: done });
-  const confirm = useMutation<unknown, ApiError>({ mutationFn: () => api(`/api/orders/${orderId}/confirm-receipt`, { body: {} }), onSuccess: done });
+  const ship = useMutation<unknown, ApiError>({
+    mutationFn: () => api(`/api/orders/${orderId}/ship`, { body: { carrier, trackingNumber: tracking } }),
+    onSuccess: done,
+  });
+  const confirm = useMutation<unknown, ApiError>({
+    mutationFn: () => api(`/api/orders/${orderId}/confirm-receipt`, { body: {} }),
+    onSuccess: done,
+  });
   const refund = useMutation<unknown, ApiError>({
-    mutationFn: () => api(`/api/orders/${orderId}/refund`, { body: { reason, ...(amount ? { amountCents: Math.round(Number(amount) * 100) } : {}) } }),
+    mutationFn: () =>
+      api(`/api/orders/${orderId}/refund`, { body: { reason, ...(amount ? { amountCents: Math.round(Number(amount) * 100) } : {}) } }),
     onSuccess: done,
   });
   const err = ship.error ?? confirm.error ?? refund.error;
@@ -31,11 +38,17 @@ function Actions({ orderId, side, status, staff, remainingCents }: Props) {
       {side === 'lab' && status === 'paid' && (
         <div>
           <h3 className="mb-2 font-semibold">Mark shipped</h3>
-          <label className="field-label" htmlFor="carrier">Carrier</label>
+          <label className="field-label" htmlFor="carrier">
+            Carrier
+          </label>
           <input id="carrier" className="field-input mb-2" value={carrier} onChange={(e) => setCarrier(e.target.value)} />
-          <label className="field-label" htmlFor="tracking">Tracking number</label>
+          <label className="field-label" htmlFor="tracking">
+            Tracking number
+          </label>
           <input id="tracking" className="field-input mb-2" value={tracking} onChange={(e) => setTracking(e.target.value)} />
-          <button type="button" className="btn btn-primary" disabled={ship.isPending} onClick={() => ship.mutate()}>Mark shipped</button>
+          <button type="button" className="btn btn-primary" disabled={ship.isPending} onClick={() => ship.mutate()}>
+            Mark shipped
+          </button>
         </div>
       )}
       {side === 'buyer' && status === 'shipped' && (
@@ -46,19 +59,35 @@ function Actions({ orderId, side, status, staff, remainingCents }: Props) {
       {side === 'buyer' && (status === 'paid' || status === 'shipped') && (
         <details>
           <summary className="cursor-pointer text-sm">Ask for a refund</summary>
-          <label className="field-label mt-2" htmlFor="reason">What is wrong?</label>
+          <label className="field-label mt-2" htmlFor="reason">
+            What is wrong?
+          </label>
           <textarea id="reason" className="field-input min-h-16" value={reason} onChange={(e) => setReason(e.target.value)} />
-          <button type="button" className="btn btn-quiet mt-2" disabled={refund.isPending} onClick={() => refund.mutate()}>Ask for a refund</button>
+          <button type="button" className="btn btn-quiet mt-2" disabled={refund.isPending} onClick={() => refund.mutate()}>
+            Ask for a refund
+          </button>
         </details>
       )}
       {staff && side === 'staff' && remainingCents > 0 && ['paid', 'shipped', 'received', 'refund_requested'].includes(status) && (
         <div>
           <h3 className="mb-2 font-semibold">Refund (moderator)</h3>
-          <label className="field-label" htmlFor="amount">Amount (empty = everything left)</label>
-          <input id="amount" inputMode="decimal" className="field-input mb-2 w-40" value={amount} onChange={(e) => setAmount(e.target.value)} />
-          <label className="field-label" htmlFor="reason-staff">Reason</label>
+          <label className="field-label" htmlFor="amount">
+            Amount (empty = everything left)
+          </label>
+          <input
+            id="amount"
+            inputMode="decimal"
+            className="field-input mb-2 w-40"
+            value={amount}
+            onChange={(e) => setAmount(e.target.value)}
+          />
+          <label className="field-label" htmlFor="reason-staff">
+            Reason
+          </label>
           <textarea id="reason-staff" className="field-input min-h-16" value={reason} onChange={(e) => setReason(e.target.value)} />
-          <button type="button" className="btn btn-quiet mt-2" disabled={refund.isPending} onClick={() => refund.mutate()}>Refund</button>
+          <button type="button" className="btn btn-quiet mt-2" disabled={refund.isPending} onClick={() => refund.mutate()}>
+            Refund
+          </button>
         </div>
       )}
     </div>

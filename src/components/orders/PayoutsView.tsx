@@ -9,13 +9,31 @@ interface Props {
   labId: string;
   isOwner: boolean;
   account: { payoutsEnabled: boolean; detailsSubmitted: boolean } | null;
-  transfers: { id: string; orderId: string; amountCents: number; currency: string; createdAt: string; subtotalCents: number; feeCents: number; buyer: string }[];
+  transfers: {
+    id: string;
+    orderId: string;
+    amountCents: number;
+    currency: string;
+    createdAt: string;
+    subtotalCents: number;
+    feeCents: number;
+    buyer: string;
+  }[];
   monthly: { month: string; currency: string; cents: number }[];
 }
 
 function download(rows: Props['transfers']) {
   const csv = Papa.unparse(
-    rows.map((t) => ({ date: t.createdAt.slice(0, 10), order: t.orderId, buyer: t.buyer, price: (t.subtotalCents / 100).toFixed(2), fee: (t.feeCents / 100).toFixed(2), transferred: (t.amountCents / 100).toFixed(2), currency: t.currency, transfer: t.id })),
+    rows.map((t) => ({
+      date: t.createdAt.slice(0, 10),
+      order: t.orderId,
+      buyer: t.buyer,
+      price: (t.subtotalCents / 100).toFixed(2),
+      fee: (t.feeCents / 100).toFixed(2),
+      transferred: (t.amountCents / 100).toFixed(2),
+      currency: t.currency,
+      transfer: t.id,
+    })),
   );
   const url = URL.createObjectURL(new Blob([csv], { type: 'text/csv' }));
   const a = document.createElement('a');
@@ -26,14 +44,21 @@ function download(rows: Props['transfers']) {
 }
 
 function View({ labId, isOwner, account, transfers, monthly }: Props) {
-  const onboard = useMutation<{ url: string }, ApiError>({ mutationFn: () => api('/api/payouts/onboarding', { body: { labId } }), onSuccess: (r) => window.location.assign(r.url) });
+  const onboard = useMutation<{ url: string }, ApiError>({
+    mutationFn: () => api('/api/payouts/onboarding', { body: { labId } }),
+    onSuccess: (r) => window.location.assign(r.url),
+  });
   const currencies = [...new Set(monthly.map((m) => m.currency))];
   const months = [...new Set(monthly.map((m) => m.month))].sort();
   return (
     <div className="space-y-5">
       {!account?.payoutsEnabled && (
         <div className="sheet p-4">
-          <p className="mb-2">{account ? 'Finish connecting the payout account to receive transfers.' : 'Connect a payout account so Lightyard can pay your lab.'}</p>
+          <p className="mb-2">
+            {account
+              ? 'Finish connecting the payout account to receive transfers.'
+              : 'Connect a payout account so Lightyard can pay your lab.'}
+          </p>
           {onboard.error && <FormMessage kind="bad">{onboard.error.message}</FormMessage>}
           {isOwner ? (
             <button type="button" className="btn btn-primary" onClick={() => onboard.mutate()} disabled={onboard.isPending}>
@@ -48,7 +73,10 @@ function View({ labId, isOwner, account, transfers, monthly }: Props) {
         <Plot
           title="Transferred per month"
           x={months.map((_, i) => i + 1)}
-          series={currencies.map((c) => ({ label: c, values: months.map((m) => (monthly.find((x) => x.month === m && x.currency === c)?.cents ?? 0) / 100) }))}
+          series={currencies.map((c) => ({
+            label: c,
+            values: months.map((m) => (monthly.find((x) => x.month === m && x.currency === c)?.cents ?? 0) / 100),
+          }))}
           xLabel={`month (${months[0]} … ${months[months.length - 1]})`}
           yLabel="amount"
         />

@@ -69,24 +69,77 @@ function compute(wl: Quantity<'length'>, len: Quantity<'length'>, extra: Quantit
     const gain = buildUp({ t1: a.t, t2: b.t, extraLoss: a.a + b.a + extraLoss });
     const mode = gaussianMode({ lengthM, roc1M: a.roc, roc2M: b.roc, wavelengthM });
     const totalLoss = a.t + a.a + b.t + b.a + extraLoss;
-    return { errors, result: { F, FLow, fsr, lw, tau, q, transmission, gain, mode, totalLoss, perMirrorLoss: (a.a + b.a) / 2, t1: a.t, t2: b.t, extraLoss, lengthM } };
+    return {
+      errors,
+      result: {
+        F,
+        FLow,
+        fsr,
+        lw,
+        tau,
+        q,
+        transmission,
+        gain,
+        mode,
+        totalLoss,
+        perMirrorLoss: (a.a + b.a) / 2,
+        t1: a.t,
+        t2: b.t,
+        extraLoss,
+        lengthM,
+      },
+    };
   } catch (e) {
     if (e instanceof FitInputError) return { errors: { [e.field]: e.message } };
     throw e;
   }
 }
 
-function MirrorFields({ n, title, m, set, errors }: { n: string; title: string; m: MirrorState; set: (m: MirrorState) => void; errors: Errors }) {
+function MirrorFields({
+  n,
+  title,
+  m,
+  set,
+  errors,
+}: {
+  n: string;
+  title: string;
+  m: MirrorState;
+  set: (m: MirrorState) => void;
+  errors: Errors;
+}) {
   return (
     <fieldset className="rounded-md border border-rule p-3">
       <legend className="px-1 text-sm font-semibold">{title}</legend>
-      <QuantityInput label="Transmission" dimension="fraction" units={['ppm', 'pct']} value={m.t} onChange={(t) => set({ ...m, t })} error={errors[`${n}.t`]} />
-      <QuantityInput label="Loss (absorption + scatter)" dimension="fraction" units={['ppm', 'pct']} value={m.loss} onChange={(loss) => set({ ...m, loss })} error={errors[`${n}.loss`]} />
+      <QuantityInput
+        label="Transmission"
+        dimension="fraction"
+        units={['ppm', 'pct']}
+        value={m.t}
+        onChange={(t) => set({ ...m, t })}
+        error={errors[`${n}.t`]}
+      />
+      <QuantityInput
+        label="Loss (absorption + scatter)"
+        dimension="fraction"
+        units={['ppm', 'pct']}
+        value={m.loss}
+        onChange={(loss) => set({ ...m, loss })}
+        error={errors[`${n}.loss`]}
+      />
       <label className="mb-2 flex items-center gap-2 text-sm">
         <input type="checkbox" checked={m.flat} onChange={(e) => set({ ...m, flat: e.target.checked })} /> Flat mirror
       </label>
       {!m.flat && (
-        <QuantityInput label="Radius of curvature" dimension="length" units={['mm', 'm']} value={m.roc} onChange={(roc) => set({ ...m, roc })} error={errors[`${n}.roc`]} hint="Concave toward the cavity." />
+        <QuantityInput
+          label="Radius of curvature"
+          dimension="length"
+          units={['mm', 'm']}
+          value={m.roc}
+          onChange={(roc) => set({ ...m, roc })}
+          error={errors[`${n}.roc`]}
+          hint="Concave toward the cavity."
+        />
       )}
     </fieldset>
   );
@@ -120,9 +173,31 @@ export default function CavityCalculator() {
       <p className="mb-4 text-sm text-ink-soft">Two-mirror standing-wave cavity in vacuum. All losses are power fractions.</p>
       <div className="grid gap-5 md:grid-cols-2">
         <div>
-          <QuantityInput label="Wavelength" dimension="length" units={['nm', 'um']} value={wl} onChange={setWl} error={errors.wl ?? errors.wavelengthM} />
-          <QuantityInput label="Cavity length" dimension="length" units={['mm', 'cm', 'm']} value={len} onChange={setLen} error={errors.len ?? errors.lengthM} />
-          <QuantityInput label="Extra round-trip loss" dimension="fraction" units={['ppm', 'pct']} value={extra} onChange={setExtra} error={errors.extraLoss} hint="Crystal, AR surfaces, clipping: anything not in the mirrors." />
+          <QuantityInput
+            label="Wavelength"
+            dimension="length"
+            units={['nm', 'um']}
+            value={wl}
+            onChange={setWl}
+            error={errors.wl ?? errors.wavelengthM}
+          />
+          <QuantityInput
+            label="Cavity length"
+            dimension="length"
+            units={['mm', 'cm', 'm']}
+            value={len}
+            onChange={setLen}
+            error={errors.len ?? errors.lengthM}
+          />
+          <QuantityInput
+            label="Extra round-trip loss"
+            dimension="fraction"
+            units={['ppm', 'pct']}
+            value={extra}
+            onChange={setExtra}
+            error={errors.extraLoss}
+            hint="Crystal, AR surfaces, clipping: anything not in the mirrors."
+          />
           <div className="grid gap-3 sm:grid-cols-2">
             <MirrorFields n="m1" title="Mirror 1" m={m1} set={setM1} errors={errors} />
             <MirrorFields n="m2" title="Mirror 2" m={m2} set={setM2} errors={errors} />
@@ -141,23 +216,74 @@ export default function CavityCalculator() {
               </p>
               {!result.mode.stable && (
                 <p className="notice notice-bad mb-3" role="alert" data-testid="cavity-stability">
-                  {result.mode.marginal ? 'Marginal' : 'Unstable'}: g1·g2 = {result.mode.g1g2.toFixed(3)} for {formatSI(result.lengthM, 'm')} with these radii.{' '}
-                  {result.mode.reason}
+                  {result.mode.marginal ? 'Marginal' : 'Unstable'}: g1·g2 = {result.mode.g1g2.toFixed(3)} for{' '}
+                  {formatSI(result.lengthM, 'm')} with these radii. {result.mode.reason}
                 </p>
               )}
-              <ResultRow label="Free spectral range" value={formatSI(result.fsr, 'Hz')} formula="FSR = c / (2 n_g L)" source="physics.md 1.6 (linear cavity)" />
-              <ResultRow label="Linewidth (FWHM)" value={formatSI(result.lw, 'Hz')} formula="Δν = FSR / ℱ" source="Saleh & Teich, Fundamentals of Photonics, 2nd ed. (2007) ch. 10 (physics.md 1.7)" />
-              <ResultRow label="Storage time (intensity)" value={formatSI(result.tau, 's')} formula="τ = ℱ / (2π FSR)" source="physics.md 1.8; the field decays in 2τ" />
+              <ResultRow
+                label="Free spectral range"
+                value={formatSI(result.fsr, 'Hz')}
+                formula="FSR = c / (2 n_g L)"
+                source="physics.md 1.6 (linear cavity)"
+              />
+              <ResultRow
+                label="Linewidth (FWHM)"
+                value={formatSI(result.lw, 'Hz')}
+                formula="Δν = FSR / ℱ"
+                source="Saleh & Teich, Fundamentals of Photonics, 2nd ed. (2007) ch. 10 (physics.md 1.7)"
+              />
+              <ResultRow
+                label="Storage time (intensity)"
+                value={formatSI(result.tau, 's')}
+                formula="τ = ℱ / (2π FSR)"
+                source="physics.md 1.8; the field decays in 2τ"
+              />
               <ResultRow label="Quality factor" value={formatCount(result.q)} formula="Q = ν₀ / Δν" source="physics.md 1.9" />
-              <ResultRow label="Transmission on resonance" value={formatFraction(result.transmission)} formula="T_res = T1 T2 √(1−L) / (1 − √ρ)²" source="physics.md 1.12 (mode-matched)" />
-              <ResultRow label="Power build-up" value={formatCount(result.gain)} formula="P_circ/P_in = T1 / (1 − √ρ)²" source="physics.md 1.13" />
-              <ResultRow label="Finesse, standard form" value={formatCount(result.F, 6)} formula="ℱ = π ρ^¼ / (1 − √ρ), ρ = R1 R2 (1 − L_rt)" source={HECHT} />
+              <ResultRow
+                label="Transmission on resonance"
+                value={formatFraction(result.transmission)}
+                formula="T_res = T1 T2 √(1−L) / (1 − √ρ)²"
+                source="physics.md 1.12 (mode-matched)"
+              />
+              <ResultRow
+                label="Power build-up"
+                value={formatCount(result.gain)}
+                formula="P_circ/P_in = T1 / (1 − √ρ)²"
+                source="physics.md 1.13"
+              />
+              <ResultRow
+                label="Finesse, standard form"
+                value={formatCount(result.F, 6)}
+                formula="ℱ = π ρ^¼ / (1 − √ρ), ρ = R1 R2 (1 − L_rt)"
+                source={HECHT}
+              />
               {result.mode.stable && (
                 <>
-                  <ResultRow label="g1, g2" value={`${result.mode.g1.toFixed(4)}, ${result.mode.g2.toFixed(4)}`} formula="g = 1 − L/R" source={KOGELNIK} />
-                  <ResultRow label="Waist radius w₀" value={formatSI(result.mode.w0M!, 'm')} formula="w₀² = (λL/π) √[g1g2(1−g1g2)/(g1+g2−2g1g2)²]" source={KOGELNIK} testId="cavity-waist" />
-                  <ResultRow label="Spot on mirror 1 / 2" value={`${formatSI(result.mode.w1M!, 'm')} / ${formatSI(result.mode.w2M!, 'm')}`} formula="w1² = (λL/π) √[g2/(g1(1−g1g2))]" source={KOGELNIK} />
-                  <ResultRow label="Transverse-mode spacing" value={formatSI(result.mode.transverseModeSpacingHz!, 'Hz')} formula="Δν_T = FSR ψ/π, ψ = arccos(±√(g1g2))" source={KOGELNIK} />
+                  <ResultRow
+                    label="g1, g2"
+                    value={`${result.mode.g1.toFixed(4)}, ${result.mode.g2.toFixed(4)}`}
+                    formula="g = 1 − L/R"
+                    source={KOGELNIK}
+                  />
+                  <ResultRow
+                    label="Waist radius w₀"
+                    value={formatSI(result.mode.w0M!, 'm')}
+                    formula="w₀² = (λL/π) √[g1g2(1−g1g2)/(g1+g2−2g1g2)²]"
+                    source={KOGELNIK}
+                    testId="cavity-waist"
+                  />
+                  <ResultRow
+                    label="Spot on mirror 1 / 2"
+                    value={`${formatSI(result.mode.w1M!, 'm')} / ${formatSI(result.mode.w2M!, 'm')}`}
+                    formula="w1² = (λL/π) √[g2/(g1(1−g1g2))]"
+                    source={KOGELNIK}
+                  />
+                  <ResultRow
+                    label="Transverse-mode spacing"
+                    value={formatSI(result.mode.transverseModeSpacingHz!, 'Hz')}
+                    formula="Δν_T = FSR ψ/π, ψ = arccos(±√(g1g2))"
+                    source={KOGELNIK}
+                  />
                 </>
               )}
             </>

@@ -63,7 +63,10 @@ export default function CountingCalculator() {
         curveX.push(wi);
         curveY.push(evaluate({ ...base, window: wi }).car);
       }
-      return { errors, result: { ...r, curveX, curveY, goal: Number.isFinite(goal) && goal > 0 ? goal : null, window: w!, thresholds: bellThresholds() } };
+      return {
+        errors,
+        result: { ...r, curveX, curveY, goal: Number.isFinite(goal) && goal > 0 ? goal : null, window: w!, thresholds: bellThresholds() },
+      };
     } catch (e) {
       if (e instanceof FitInputError) return { errors: { [e.field]: e.message } };
       throw e;
@@ -76,7 +79,14 @@ export default function CountingCalculator() {
         {label}
       </label>
       <div className="flex">
-        <input id={`ct-${id}`} inputMode="decimal" className="field-input num rounded-r-none" value={v} onChange={(e) => set(e.target.value)} aria-invalid={errors[id] ? true : undefined} />
+        <input
+          id={`ct-${id}`}
+          inputMode="decimal"
+          className="field-input num rounded-r-none"
+          value={v}
+          onChange={(e) => set(e.target.value)}
+          aria-invalid={errors[id] ? true : undefined}
+        />
         <span className="rounded-r-sm border border-l-0 border-rule-strong bg-paper px-2 py-2 text-sm">%</span>
       </div>
       {errors[id] && <p className="field-error">{errors[id]}</p>}
@@ -97,14 +107,27 @@ export default function CountingCalculator() {
           {pct('Your optical efficiency per arm (coupling, filters)', 'optical', optical, setOptical)}
           <QuantityInput label="Pair rate at the source" dimension="rate" value={pairs} onChange={setPairs} error={errors.pairs} />
           <QuantityInput label="Dark count rate" dimension="rate" units={['perS', 'kperS']} value={dark} onChange={setDark} />
-          <QuantityInput label="Coincidence window (full width)" dimension="time" units={['ps', 'ns']} value={win} onChange={setWin} error={errors.win} />
+          <QuantityInput
+            label="Coincidence window (full width)"
+            dimension="time"
+            units={['ps', 'ns']}
+            value={win}
+            onChange={setWin}
+            error={errors.win}
+          />
           <QuantityInput label="Timing jitter per detector (FWHM)" dimension="time" units={['ps', 'ns']} value={jit} onChange={setJit} />
           <QuantityInput label="Dead time" dimension="time" units={['ns', 'us']} value={dead} onChange={setDead} />
           <div className="mb-3">
             <label className="field-label" htmlFor="ct-car">
               Goal: coincidence-to-accidental ratio
             </label>
-            <input id="ct-car" inputMode="decimal" className="field-input num" value={carGoal} onChange={(e) => setCarGoal(e.target.value)} />
+            <input
+              id="ct-car"
+              inputMode="decimal"
+              className="field-input num"
+              value={carGoal}
+              onChange={(e) => setCarGoal(e.target.value)}
+            />
           </div>
         </div>
         <div aria-live="polite">
@@ -115,18 +138,41 @@ export default function CountingCalculator() {
                 {formatFraction(result.heralding)}
               </p>
               <p className="mb-3 text-sm">
-                {mark(result.heralding > result.thresholds.eberhard)} the Eberhard threshold 2/3 · {mark(result.heralding > result.thresholds.chsh)} the CHSH threshold 82.8 %
+                {mark(result.heralding > result.thresholds.eberhard)} the Eberhard threshold 2/3 ·{' '}
+                {mark(result.heralding > result.thresholds.chsh)} the CHSH threshold 82.8 %
               </p>
-              <ResultRow label="Arm efficiency (detector × optical)" value={formatFraction(result.eta)} formula="η = η_det · η_opt" source={BELL_SRC} />
-              <ResultRow label="Measured singles per arm" value={formatSI(result.measuredSingles, '/s')} formula="R_meas = R / (1 + R τ_d)" source={DEAD_SRC} />
+              <ResultRow
+                label="Arm efficiency (detector × optical)"
+                value={formatFraction(result.eta)}
+                formula="η = η_det · η_opt"
+                source={BELL_SRC}
+              />
+              <ResultRow
+                label="Measured singles per arm"
+                value={formatSI(result.measuredSingles, '/s')}
+                formula="R_meas = R / (1 + R τ_d)"
+                source={DEAD_SRC}
+              />
               <ResultRow label="Lost to dead time" value={formatFraction(result.deadLoss)} formula="1 − R_meas/R" source={DEAD_SRC} />
-              <ResultRow label="True coincidences" value={formatSI(result.trueCoincidences, '/s')} formula="C − A = R η² · erf(W / (2√2 σ))" source="physics.md 6.9 (Gaussian jitter in quadrature)" />
+              <ResultRow
+                label="True coincidences"
+                value={formatSI(result.trueCoincidences, '/s')}
+                formula="C − A = R η² · erf(W / (2√2 σ))"
+                source="physics.md 6.9 (Gaussian jitter in quadrature)"
+              />
               <ResultRow label="Accidentals" value={formatSI(result.accidentals, '/s')} formula="A = N1 N2 τ_c" source={ACC_SRC} />
-              <ResultRow label="CAR, (C − A)/A" value={formatCount(result.car)} formula="CAR = (C − A) / A" source={ACC_SRC} testId="ct-car" />
+              <ResultRow
+                label="CAR, (C − A)/A"
+                value={formatCount(result.car)}
+                formula="CAR = (C − A) / A"
+                source={ACC_SRC}
+                testId="ct-car"
+              />
               {result.goal !== null && (
                 <p className="mt-2 text-sm">
                   {result.car >= result.goal ? '✓ meets' : '✗ misses'} the CAR goal of {formatCount(result.goal)}
-                  {result.capture < 0.95 && ` — the window keeps only ${formatFraction(result.capture)} of true coincidences with ${formatSI(result.jitter, 's')} combined jitter`}
+                  {result.capture < 0.95 &&
+                    ` — the window keeps only ${formatFraction(result.capture)} of true coincidences with ${formatSI(result.jitter, 's')} combined jitter`}
                 </p>
               )}
             </>
@@ -141,7 +187,9 @@ export default function CountingCalculator() {
           x={result.curveX}
           series={[
             { label: 'CAR', values: result.curveY },
-            ...(result.goal !== null ? [{ label: `goal ${result.goal}`, values: result.curveX.map(() => result.goal!), dashed: true, colour: '#9b2c2c' }] : []),
+            ...(result.goal !== null
+              ? [{ label: `goal ${result.goal}`, values: result.curveX.map(() => result.goal!), dashed: true, colour: '#9b2c2c' }]
+              : []),
           ]}
           xLabel="window (s)"
           yLabel="CAR"

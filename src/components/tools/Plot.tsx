@@ -104,7 +104,13 @@ export function Plot(props: PlotProps) {
   return (
     <figure className="mt-4">
       <figcaption className="mb-1 text-sm font-medium">{props.title}</figcaption>
-      <div ref={box} className="w-full" role="img" aria-label={`${props.title}: ${props.yLabel} against ${props.xLabel}`} data-testid="plot" />
+      <div
+        ref={box}
+        className="w-full"
+        role="img"
+        aria-label={`${props.title}: ${props.yLabel} against ${props.xLabel}`}
+        data-testid="plot"
+      />
     </figure>
   );
 }

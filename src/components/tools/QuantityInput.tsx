@@ -77,7 +77,19 @@ export function QuantityInput<D extends Dimension>({ label, dimension, value, on
 }
 
 /** A result line: the number first, then the formula and its source, folded. */
-export function ResultRow({ label, value, formula, source, testId }: { label: string; value: string; formula: string; source: string; testId?: string }) {
+export function ResultRow({
+  label,
+  value,
+  formula,
+  source,
+  testId,
+}: {
+  label: string;
+  value: string;
+  formula: string;
+  source: string;
+  testId?: string;
+}) {
   return (
     <div className="border-b border-rule py-2 last:border-b-0">
       <div className="flex items-baseline justify-between gap-3">

@@ -119,8 +119,17 @@ export default function SqueezingCalculator() {
         {label}
       </label>
       <div className="flex">
-        <input id={`sq-${key}`} inputMode="decimal" className="field-input num rounded-r-none" value={value} onChange={(e) => set(e.target.value)} aria-invalid={errors[key] ? true : undefined} />
-        <span className="rounded-r-sm border border-l-0 border-rule-strong bg-paper px-2 py-2 text-sm">{key === 'clearance' || key === 'goal' || key === 'initialDb' ? 'dB' : key === 'pump' ? 'x' : '%'}</span>
+        <input
+          id={`sq-${key}`}
+          inputMode="decimal"
+          className="field-input num rounded-r-none"
+          value={value}
+          onChange={(e) => set(e.target.value)}
+          aria-invalid={errors[key] ? true : undefined}
+        />
+        <span className="rounded-r-sm border border-l-0 border-rule-strong bg-paper px-2 py-2 text-sm">
+          {key === 'clearance' || key === 'goal' || key === 'initialDb' ? 'dB' : key === 'pump' ? 'x' : '%'}
+        </span>
       </div>
       {errors[key] ? <p className="field-error">{errors[key]}</p> : hint ? <p className="field-hint">{hint}</p> : null}
     </div>
@@ -131,7 +140,9 @@ export default function SqueezingCalculator() {
       <h2 id="sq-h" className="mb-1 text-lg font-semibold">
         Squeezing: loss budget and detector efficiency
       </h2>
-      <p className="mb-4 text-sm text-ink-soft">Homodyne detection of squeezed vacuum. Total efficiency = escape · propagation · visibility² · QE · electronic.</p>
+      <p className="mb-4 text-sm text-ink-soft">
+        Homodyne detection of squeezed vacuum. Total efficiency = escape · propagation · visibility² · QE · electronic.
+      </p>
       <div className="grid gap-5 md:grid-cols-2">
         <div>
           <fieldset className="mb-3">
@@ -148,8 +159,21 @@ export default function SqueezingCalculator() {
           ) : (
             <>
               {pctField('Pump parameter', pump, setPump, 'pump', 'x = √(P_pump / P_threshold)')}
-              <QuantityInput label="OPO linewidth (FWHM)" dimension="frequency" units={['kHz', 'MHz']} value={opoLw} onChange={setOpoLw} error={errors.opoLw} />
-              <QuantityInput label="Sideband frequency" dimension="frequency" units={['kHz', 'MHz']} value={sideband} onChange={setSideband} />
+              <QuantityInput
+                label="OPO linewidth (FWHM)"
+                dimension="frequency"
+                units={['kHz', 'MHz']}
+                value={opoLw}
+                onChange={setOpoLw}
+                error={errors.opoLw}
+              />
+              <QuantityInput
+                label="Sideband frequency"
+                dimension="frequency"
+                units={['kHz', 'MHz']}
+                value={sideband}
+                onChange={setSideband}
+              />
             </>
           )}
           {pctField('Escape efficiency', escape, setEscape, 'escape')}
@@ -169,15 +193,36 @@ export default function SqueezingCalculator() {
               </p>
               <p className="mb-3 text-sm">
                 {result.now.squeezedDb >= result.goal ? (
-                  <span className="text-good">✓ meets the {result.goal} dB goal, headroom {formatDb(result.now.squeezedDb - result.goal)}</span>
+                  <span className="text-good">
+                    ✓ meets the {result.goal} dB goal, headroom {formatDb(result.now.squeezedDb - result.goal)}
+                  </span>
                 ) : (
-                  <span className="text-bad">✗ below the {result.goal} dB goal by {formatDb(result.goal - result.now.squeezedDb)}</span>
+                  <span className="text-bad">
+                    ✗ below the {result.goal} dB goal by {formatDb(result.goal - result.now.squeezedDb)}
+                  </span>
                 )}
               </p>
-              <ResultRow label="Anti-squeezing" value={formatDb(result.now.antiSqueezedDb)} formula={mode === 'opo' ? 'V± = 1 ± η·4x/[(1 ∓ x)² + (Ω/γ)²], rotated by θ' : 'V = η·V₀ + 1 − η, rotated by θ'} source={mode === 'opo' ? OPO_SRC : LOSS_SRC} />
-              <ResultRow label="Total efficiency η" value={formatFraction(result.eta)} formula="η = η_esc · η_prop · V² · η_QE · η_el" source="physics.md 5.5" />
+              <ResultRow
+                label="Anti-squeezing"
+                value={formatDb(result.now.antiSqueezedDb)}
+                formula={mode === 'opo' ? 'V± = 1 ± η·4x/[(1 ∓ x)² + (Ω/γ)²], rotated by θ' : 'V = η·V₀ + 1 − η, rotated by θ'}
+                source={mode === 'opo' ? OPO_SRC : LOSS_SRC}
+              />
+              <ResultRow
+                label="Total efficiency η"
+                value={formatFraction(result.eta)}
+                formula="η = η_esc · η_prop · V² · η_QE · η_el"
+                source="physics.md 5.5"
+              />
               <ResultRow label="Electronic efficiency" value={formatFraction(result.el)} formula="η_el = 1 − 10^(−C/10)" source={EL_SRC} />
-              {mode === 'opo' && <ResultRow label="Ω/γ (sideband over cavity half-width)" value={result.omegaOverGamma.toFixed(3)} formula="Ω/γ = f / (Δν_FWHM / 2)" source="physics.md 5.6a" />}
+              {mode === 'opo' && (
+                <ResultRow
+                  label="Ω/γ (sideband over cavity half-width)"
+                  value={result.omegaOverGamma.toFixed(3)}
+                  formula="Ω/γ = f / (Δν_FWHM / 2)"
+                  source="physics.md 5.6a"
+                />
+              )}
               <ResultRow
                 label={`Detector QE needed for ${result.goal} dB`}
                 value={result.req.feasible ? formatFraction(result.req.efficiency) : 'not reachable'}
@@ -221,7 +266,9 @@ export default function SqueezingCalculator() {
           )}
         </div>
       )}
-      <p className="mt-3 text-xs text-ink-faint">Linearised below-threshold model, single spatial mode, no pump noise or detuning; detection well inside the detector bandwidth.</p>
+      <p className="mt-3 text-xs text-ink-faint">
+        Linearised below-threshold model, single spatial mode, no pump noise or detuning; detection well inside the detector bandwidth.
+      </p>
     </section>
   );
 }

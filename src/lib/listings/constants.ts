@@ -1,5 +1,13 @@
 /** Names shared by the listing schemas, the API, the pages and the database. */
-export const CATEGORIES = ['cavity-mirror', 'photodiode', 'balanced-detector', 'single-photon-detector', 'laser', 'nonlinear-crystal', 'other'] as const;
+export const CATEGORIES = [
+  'cavity-mirror',
+  'photodiode',
+  'balanced-detector',
+  'single-photon-detector',
+  'laser',
+  'nonlinear-crystal',
+  'other',
+] as const;
 export type Category = (typeof CATEGORIES)[number];
 
 export const CATEGORY_LABELS: Record<Category, string> = {

@@ -16,7 +16,11 @@ export type FitCandidate =
 
 const curveOf = (ms: readonly MeasurementData[]) => ms.find((m): m is EfficiencyCurveData => m.kind === 'efficiency-curve');
 
-export function fitCandidate(category: Category, specs: Record<string, unknown>, measurements: readonly MeasurementData[] = []): FitCandidate {
+export function fitCandidate(
+  category: Category,
+  specs: Record<string, unknown>,
+  measurements: readonly MeasurementData[] = [],
+): FitCandidate {
   switch (category) {
     case 'cavity-mirror': {
       const spec = { ...(specs as unknown as MirrorSpec) };

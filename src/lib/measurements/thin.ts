@@ -14,5 +14,9 @@ function every<T>(points: readonly T[], max: number): T[] {
 /** Ring-down traces are thinned; spectra and efficiency curves keep every measured point (they feed interpolation). */
 export function forStorage(data: MeasurementData, max = STORED_POINTS_MAX): MeasurementData {
   if (data.kind !== 'ringdown' || data.points.length <= max) return data;
-  return { ...data, points: every(data.points, max), notes: [...data.notes, `trace of ${data.points.length} points stored as ${max} for display; the fit used all of them`] };
+  return {
+    ...data,
+    points: every(data.points, max),
+    notes: [...data.notes, `trace of ${data.points.length} points stored as ${max} for display; the fit used all of them`],
+  };
 }

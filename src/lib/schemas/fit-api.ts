@@ -7,12 +7,20 @@ const MeasuredMirrorSchema = z.object({
   spectrum: z
     .object({
       points: z
-        .array(z.object({ wavelengthNm: z.number().finite().positive(), transmissionPpm: z.number().finite().min(0), lossPpm: z.number().finite().min(0).optional() }))
+        .array(
+          z.object({
+            wavelengthNm: z.number().finite().positive(),
+            transmissionPpm: z.number().finite().min(0),
+            lossPpm: z.number().finite().min(0).optional(),
+          }),
+        )
         .min(2)
         .max(20_000),
     })
     .optional(),
-  ringdown: z.object({ wavelengthNm: z.number().finite().positive(), lengthM: z.number().finite().positive(), tauS: z.number().finite().positive() }).optional(),
+  ringdown: z
+    .object({ wavelengthNm: z.number().finite().positive(), lengthM: z.number().finite().positive(), tauS: z.number().finite().positive() })
+    .optional(),
 });
 
 const MirrorSchema = z.intersection(SPEC_SCHEMAS['cavity-mirror'], MeasuredMirrorSchema);

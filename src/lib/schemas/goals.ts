@@ -4,7 +4,11 @@
 import { z } from 'zod';
 import type { CavityGoal, CountingGoal, LaserGoal, SqueezingGoal } from '../fit';
 
-const positive = (what: string) => z.number({ invalid_type_error: `Enter ${what} as a number.` }).finite().positive(`${what[0]!.toUpperCase()}${what.slice(1)} must be above zero.`);
+const positive = (what: string) =>
+  z
+    .number({ invalid_type_error: `Enter ${what} as a number.` })
+    .finite()
+    .positive(`${what[0]!.toUpperCase()}${what.slice(1)} must be above zero.`);
 const efficiency = (what: string) =>
   z
     .number({ invalid_type_error: `Enter ${what} as a number.` })
@@ -25,7 +29,11 @@ export const CavityGoalSchema = z.object({
   ownMirror: z
     .union([
       z.object({ reflectivity: efficiency('the reflectivity'), rocMm: positive('the radius of curvature').nullable() }),
-      z.object({ transmissionPpm: z.number().finite().min(0), lossPpm: z.number().finite().min(0), rocMm: positive('the radius of curvature').nullable() }),
+      z.object({
+        transmissionPpm: z.number().finite().min(0),
+        lossPpm: z.number().finite().min(0),
+        rocMm: positive('the radius of curvature').nullable(),
+      }),
     ])
     .optional(),
   extraLossPpm: z.number().finite().min(0).max(1e6).optional(),
@@ -37,8 +45,16 @@ export const SqueezingGoalSchema = z.object({
   targetDb: positive('the squeezing goal').max(30),
   sidebandHz: z.number().finite().min(0),
   source: z.discriminatedUnion('kind', [
-    z.object({ kind: z.literal('initial'), initialDb: positive('the initial squeezing').max(40), antiSqueezingDb: positive('the anti-squeezing').max(60).optional() }),
-    z.object({ kind: z.literal('opo'), pumpParameter: z.number().finite().min(0).lt(1, 'The pump parameter stays below 1 (threshold).'), linewidthHz: positive('the OPO linewidth') }),
+    z.object({
+      kind: z.literal('initial'),
+      initialDb: positive('the initial squeezing').max(40),
+      antiSqueezingDb: positive('the anti-squeezing').max(60).optional(),
+    }),
+    z.object({
+      kind: z.literal('opo'),
+      pumpParameter: z.number().finite().min(0).lt(1, 'The pump parameter stays below 1 (threshold).'),
+      linewidthHz: positive('the OPO linewidth'),
+    }),
   ]),
   escapeEfficiency: efficiency('the escape efficiency'),
   propagationEfficiency: efficiency('the propagation efficiency'),

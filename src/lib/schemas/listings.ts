@@ -16,7 +16,10 @@ export const ModerationSchema = z.object({
 });
 
 export const FlagsSchema = z.object({
-  hazards: z.array(z.enum(HAZARDS)).max(HAZARDS.length).refine((a) => new Set(a).size === a.length, 'List each hazard once.'),
+  hazards: z
+    .array(z.enum(HAZARDS))
+    .max(HAZARDS.length)
+    .refine((a) => new Set(a).size === a.length, 'List each hazard once.'),
   exportControlled: z.boolean(),
   exportNote: z.string().trim().max(500).nullable().optional(),
 });

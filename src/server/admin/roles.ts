@@ -32,8 +32,13 @@ async function requireExistingUser(userId: string) {
 export async function grantRole(actor: CurrentUser, userId: string, role: RoleName) {
   await requireExistingUser(userId);
   await getDb().transaction(async (tx) => {
-    const added = await tx.insert(userRoles).values({ userId, role, grantedBy: actor.id }).onConflictDoNothing().returning({ role: userRoles.role });
-    if (added.length) await audit({ actorId: actor.id, action: 'role.granted', subjectType: 'user', subjectId: userId, data: { role } }, tx);
+    const added = await tx
+      .insert(userRoles)
+      .values({ userId, role, grantedBy: actor.id })
+      .onConflictDoNothing()
+      .returning({ role: userRoles.role });
+    if (added.length)
+      await audit({ actorId: actor.id, action: 'role.granted', subjectType: 'user', subjectId: userId, data: { role } }, tx);
   });
 }
 
@@ -47,7 +52,11 @@ export async function revokeRole(actor: CurrentUser, userId: string, role: RoleN
         .where(and(eq(userRoles.role, 'admin'), ne(userRoles.userId, userId)));
       if (others === 0) throw conflict('Lightyard keeps at least one admin. Grant the role to someone else first.');
     }
-    const removed = await tx.delete(userRoles).where(and(eq(userRoles.userId, userId), eq(userRoles.role, role))).returning({ role: userRoles.role });
-    if (removed.length) await audit({ actorId: actor.id, action: 'role.revoked', subjectType: 'user', subjectId: userId, data: { role } }, tx);
+    const removed = await tx
+      .delete(userRoles)
+      .where(and(eq(userRoles.userId, userId), eq(userRoles.role, role)))
+      .returning({ role: userRoles.role });
+    if (removed.length)
+      await audit({ actorId: actor.id, action: 'role.revoked', subjectType: 'user', subjectId: userId, data: { role } }, tx);
   });
 }

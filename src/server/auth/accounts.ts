@@ -18,7 +18,8 @@ const appUrl = (path: string) => new URL(path, getConfig().APP_ORIGIN).toString(
 export async function signUp(input: { email: string; password: string; name: string }) {
   const db = getDb();
   const existing = await db.select({ id: users.id }).from(users).where(eq(users.email, input.email)).limit(1);
-  if (existing.length) throw conflict('An account with this e-mail address already exists. Sign in or reset the password.', { email: 'Already registered.' });
+  if (existing.length)
+    throw conflict('An account with this e-mail address already exists. Sign in or reset the password.', { email: 'Already registered.' });
   const passwordHash = await hashPassword(input.password);
   const id = newId();
   const { token, hash } = newToken();
@@ -26,13 +27,17 @@ export async function signUp(input: { email: string; password: string; name: str
     await db.transaction(async (tx) => {
       await tx.insert(users).values({ id, email: input.email, name: input.name, passwordHash });
       await tx.insert(userRoles).values({ userId: id, role: 'buyer' });
-      await tx.insert(emailTokens).values({ id: newId(), userId: id, kind: 'verify', tokenHash: hash, expiresAt: new Date(Date.now() + VERIFY_TTL_MS) });
+      await tx
+        .insert(emailTokens)
+        .values({ id: newId(), userId: id, kind: 'verify', tokenHash: hash, expiresAt: new Date(Date.now() + VERIFY_TTL_MS) });
       await queueMail(verificationMail(input.email, input.name, appUrl(`/verify?token=${token}`)), tx);
       await audit({ actorId: id, action: 'account.created', subjectType: 'user', subjectId: id }, tx);
     });
   } catch (err) {
     if (/UNIQUE constraint failed: users\.email/.test(String((err as Error).message))) {
-      throw conflict('An account with this e-mail address already exists. Sign in or reset the password.', { email: 'Already registered.' });
+      throw conflict('An account with this e-mail address already exists. Sign in or reset the password.', {
+        email: 'Already registered.',
+      });
     }
     throw err;
   }
@@ -46,7 +51,14 @@ async function consumeToken(token: string, kind: 'verify' | 'reset'): Promise<st
   const rows = await getDb()
     .update(emailTokens)
     .set({ usedAt: now })
-    .where(and(eq(emailTokens.tokenHash, hashToken(token)), eq(emailTokens.kind, kind), isNull(emailTokens.usedAt), gt(emailTokens.expiresAt, now)))
+    .where(
+      and(
+        eq(emailTokens.tokenHash, hashToken(token)),
+        eq(emailTokens.kind, kind),
+        isNull(emailTokens.usedAt),
+        gt(emailTokens.expiresAt, now),
+      ),
+    )
     .returning({ userId: emailTokens.userId });
   return rows[0]?.userId ?? null;
 }
@@ -54,7 +66,10 @@ async function consumeToken(token: string, kind: 'verify' | 'reset'): Promise<st
 export async function verifyEmail(token: string): Promise<{ userId: string }> {
   const userId = await consumeToken(token, 'verify');
   if (!userId) throw new HttpError(400, 'invalid_token', 'This confirmation link is invalid, used or expired. Sign in to get a new one.');
-  await getDb().update(users).set({ emailVerifiedAt: new Date(), updatedAt: new Date() }).where(and(eq(users.id, userId), isNull(users.emailVerifiedAt)));
+  await getDb()
+    .update(users)
+    .set({ emailVerifiedAt: new Date(), updatedAt: new Date() })
+    .where(and(eq(users.id, userId), isNull(users.emailVerifiedAt)));
   await audit({ actorId: userId, action: 'account.verified', subjectType: 'user', subjectId: userId });
   return { userId };
 }
@@ -65,8 +80,13 @@ export async function resendVerification(userId: string): Promise<void> {
   if (!u || u.emailVerifiedAt) return;
   const { token, hash } = newToken();
   await db.transaction(async (tx) => {
-    await tx.update(emailTokens).set({ usedAt: new Date() }).where(and(eq(emailTokens.userId, userId), eq(emailTokens.kind, 'verify'), isNull(emailTokens.usedAt)));
-    await tx.insert(emailTokens).values({ id: newId(), userId, kind: 'verify', tokenHash: hash, expiresAt: new Date(Date.now() + VERIFY_TTL_MS) });
+    await tx
+      .update(emailTokens)
+      .set({ usedAt: new Date() })
+      .where(and(eq(emailTokens.userId, userId), eq(emailTokens.kind, 'verify'), isNull(emailTokens.usedAt)));
+    await tx
+      .insert(emailTokens)
+      .values({ id: newId(), userId, kind: 'verify', tokenHash: hash, expiresAt: new Date(Date.now() + VERIFY_TTL_MS) });
     await queueMail(verificationMail(u.email, u.name, appUrl(`/verify?token=${token}`)), tx);
   });
   kickOutbox();
@@ -78,9 +98,15 @@ export const SIGN_IN_REFUSED = 'The e-mail address or password is not right.';
 export async function signIn(email: string, password: string, address: string): Promise<{ userId: string }> {
   const wait = await signInBlockedFor(email, address);
   if (wait !== null) {
-    throw new HttpError(429, 'rate_limited', `Too many failed sign-in attempts. Try again in ${Math.ceil(wait / 60)} minute(s), or reset your password.`, undefined, {
-      'retry-after': String(wait),
-    });
+    throw new HttpError(
+      429,
+      'rate_limited',
+      `Too many failed sign-in attempts. Try again in ${Math.ceil(wait / 60)} minute(s), or reset your password.`,
+      undefined,
+      {
+        'retry-after': String(wait),
+      },
+    );
   }
   const [u] = await getDb().select().from(users).where(eq(users.email, email)).limit(1);
   const ok = await verifyPassword(u?.passwordHash ?? (await decoyHash()), password);
@@ -99,7 +125,9 @@ export async function requestPasswordReset(email: string): Promise<void> {
   if (!u) return;
   const { token, hash } = newToken();
   await db.transaction(async (tx) => {
-    await tx.insert(emailTokens).values({ id: newId(), userId: u.id, kind: 'reset', tokenHash: hash, expiresAt: new Date(Date.now() + RESET_TTL_MS) });
+    await tx
+      .insert(emailTokens)
+      .values({ id: newId(), userId: u.id, kind: 'reset', tokenHash: hash, expiresAt: new Date(Date.now() + RESET_TTL_MS) });
     await queueMail(resetMail(u.email, u.name, appUrl(`/reset-password?token=${token}`)), tx);
   });
   kickOutbox();
@@ -126,7 +154,10 @@ export async function changePassword(userId: string, currentPassword: string, ne
   if (!u || !(await verifyPassword(u.passwordHash, currentPassword))) {
     throw new HttpError(400, 'validation_failed', 'The current password is not right.', { currentPassword: 'Not right.' });
   }
-  await db.update(users).set({ passwordHash: await hashPassword(newPassword), updatedAt: new Date() }).where(eq(users.id, userId));
+  await db
+    .update(users)
+    .set({ passwordHash: await hashPassword(newPassword), updatedAt: new Date() })
+    .where(eq(users.id, userId));
   await audit({ actorId: userId, action: 'account.password_changed', subjectType: 'user', subjectId: userId });
 }
 

@@ -22,7 +22,11 @@ export function requireUser(ctx: WithLocals): CurrentUser {
 export function requireVerifiedUser(ctx: WithLocals): CurrentUser {
   const user = requireUser(ctx);
   if (!user.emailVerified) {
-    throw new HttpError(403, 'email_unverified', 'Confirm your e-mail address first: open the link we sent you, or ask for a new one on your account page.');
+    throw new HttpError(
+      403,
+      'email_unverified',
+      'Confirm your e-mail address first: open the link we sent you, or ask for a new one on your account page.',
+    );
   }
   return user;
 }

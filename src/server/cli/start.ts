@@ -96,4 +96,6 @@ if (dev) {
   run('app', process.execPath, ['dist/server/entry.mjs']);
 }
 await waitForPort(Number(port), process.env.HOST ?? '127.0.0.1', 60_000);
-console.log(`\nLightyard is running on ${process.env.APP_ORIGIN ?? `http://localhost:${port}`}${envFile ? ` (settings from ${envFile})` : ''}. Ctrl-C stops it.`);
+console.log(
+  `\nLightyard is running on ${process.env.APP_ORIGIN ?? `http://localhost:${port}`}${envFile ? ` (settings from ${envFile})` : ''}. Ctrl-C stops it.`,
+);

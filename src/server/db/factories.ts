@@ -47,8 +47,13 @@ export async function buildLab(spec: LabSpec): Promise<{ id: string; slug: strin
   return { id, slug };
 }
 
-export type ListingSpec = Pick<Listing, 'labId' | 'category' | 'title' | 'condition' | 'quantity' | 'priceCents' | 'currency' | 'shipsTo' | 'specs'> &
-  Partial<Pick<Listing, 'status' | 'description' | 'published' | 'createdBy' | 'hazards' | 'exportControlled' | 'exportNote' | 'submittedAt'>>;
+export type ListingSpec = Pick<
+  Listing,
+  'labId' | 'category' | 'title' | 'condition' | 'quantity' | 'priceCents' | 'currency' | 'shipsTo' | 'specs'
+> &
+  Partial<
+    Pick<Listing, 'status' | 'description' | 'published' | 'createdBy' | 'hazards' | 'exportControlled' | 'exportNote' | 'submittedAt'>
+  >;
 
 export async function buildListing(spec: ListingSpec): Promise<{ id: string }> {
   const id = newId();

@@ -1,6 +1,14 @@
 import { sql } from 'drizzle-orm';
 import { ROLE_NAMES, type RoleName } from '../../lib/roles';
-import { CATEGORIES, CONDITIONS, FILE_KINDS, LISTING_STATUSES, MEASUREMENT_KINDS, type Hazard, type Region } from '../../lib/listings/constants';
+import {
+  CATEGORIES,
+  CONDITIONS,
+  FILE_KINDS,
+  LISTING_STATUSES,
+  MEASUREMENT_KINDS,
+  type Hazard,
+  type Region,
+} from '../../lib/listings/constants';
 import { index, integer, primaryKey, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 
 const createdAt = () =>
@@ -210,7 +218,10 @@ export const listings = sqliteTable(
     specs: text('specs', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
     published: text('published', { mode: 'json' }).$type<PublishedListing>(),
     reviewReason: text('review_reason'),
-    hazards: text('hazards', { mode: 'json' }).$type<Hazard[]>().notNull().default(sql`'[]'`),
+    hazards: text('hazards', { mode: 'json' })
+      .$type<Hazard[]>()
+      .notNull()
+      .default(sql`'[]'`),
     exportControlled: integer('export_controlled', { mode: 'boolean' }).notNull().default(false),
     exportNote: text('export_note'),
     version: integer('version').notNull().default(1),
@@ -221,7 +232,11 @@ export const listings = sqliteTable(
       .default(sql`(unixepoch('subsec') * 1000)`),
     submittedAt: integer('submitted_at', { mode: 'timestamp_ms' }),
   },
-  (t) => [index('listings_lab_idx').on(t.labId), index('listings_status_idx').on(t.status, t.submittedAt), index('listings_updated_idx').on(t.updatedAt)],
+  (t) => [
+    index('listings_lab_idx').on(t.labId),
+    index('listings_status_idx').on(t.status, t.submittedAt),
+    index('listings_updated_idx').on(t.updatedAt),
+  ],
 );
 
 export const FILE_STATUSES = ['pending', 'ready', 'refused'] as const;
@@ -383,7 +398,16 @@ export const checkouts = sqliteTable(
   (t) => [index('checkouts_status_idx').on(t.status, t.reservedUntil)],
 );
 
-export const ORDER_STATUSES = ['pending_payment', 'paid', 'shipped', 'received', 'completed', 'refund_requested', 'refunded', 'cancelled'] as const;
+export const ORDER_STATUSES = [
+  'pending_payment',
+  'paid',
+  'shipped',
+  'received',
+  'completed',
+  'refund_requested',
+  'refunded',
+  'cancelled',
+] as const;
 export type OrderStatus = (typeof ORDER_STATUSES)[number];
 
 export const orders = sqliteTable(
@@ -424,7 +448,11 @@ export const orders = sqliteTable(
       .notNull()
       .default(sql`(unixepoch('subsec') * 1000)`),
   },
-  (t) => [index('orders_buyer_idx').on(t.buyerId), index('orders_lab_idx').on(t.labId, t.status), index('orders_checkout_idx').on(t.checkoutId)],
+  (t) => [
+    index('orders_buyer_idx').on(t.buyerId),
+    index('orders_lab_idx').on(t.labId, t.status),
+    index('orders_checkout_idx').on(t.checkoutId),
+  ],
 );
 
 export const orderItems = sqliteTable(

@@ -47,15 +47,35 @@ function measurementFiles(d: DemoListing, seed: number): SeedFile[] {
     quantumEfficiency?: { value: number };
     efficiency?: { value: number };
   };
-  const csv = (name: string, kind: MeasurementKind, text: string): SeedFile => ({ kind: 'measurement', measurementKind: kind, filename: name, contentType: 'text/csv', bytes: Buffer.from(text) });
+  const csv = (name: string, kind: MeasurementKind, text: string): SeedFile => ({
+    kind: 'measurement',
+    measurementKind: kind,
+    filename: name,
+    contentType: 'text/csv',
+    bytes: Buffer.from(text),
+  });
   return (d.measurements ?? []).map((m) => {
     if (m === 'ringdown') {
       // measured a little better than the conservative spec, as sellers' own traces often are
       const perMirror = (s.transmissionPpm.value + s.lossPpm.value) * 0.92;
-      return csv('ringdown-50mm.csv', 'ringdown', ringdownCsv({ tauS: tauForMirrorLoss(perMirror, 0.05), lengthM: 0.05, wavelengthNm: s.designWavelengthNm, seed }));
+      return csv(
+        'ringdown-50mm.csv',
+        'ringdown',
+        ringdownCsv({ tauS: tauForMirrorLoss(perMirror, 0.05), lengthM: 0.05, wavelengthNm: s.designWavelengthNm, seed }),
+      );
     }
     if (m === 'spectrum') {
-      return csv('transmission-spectrum.csv', 'spectrum', spectrumCsv({ bandMinNm: s.bandMinNm, bandMaxNm: s.bandMaxNm, transmissionPpm: s.transmissionPpm.value, lossPpm: s.lossPpm.value, seed }));
+      return csv(
+        'transmission-spectrum.csv',
+        'spectrum',
+        spectrumCsv({
+          bandMinNm: s.bandMinNm,
+          bandMaxNm: s.bandMaxNm,
+          transmissionPpm: s.transmissionPpm.value,
+          lossPpm: s.lossPpm.value,
+          seed,
+        }),
+      );
     }
     const eff = (s.quantumEfficiency ?? s.efficiency)?.value ?? 0.8;
     return csv('efficiency-curve.csv', 'efficiency-curve', efficiencyCsv({ wavelengthNm: s.wavelengthNm, efficiency: eff, seed }));
@@ -65,7 +85,12 @@ function measurementFiles(d: DemoListing, seed: number): SeedFile[] {
 export async function seedListingFiles(created: { id: string; demo: DemoListing }[], createdBy: Record<DemoListing['lab'], string>) {
   for (const [i, { id, demo }] of created.entries()) {
     const userId = createdBy[demo.lab];
-    await attach(userId, id, { kind: 'photo', filename: 'photo-1.jpg', contentType: 'image/jpeg', bytes: await partPhoto(demo.category, i + 1) });
+    await attach(userId, id, {
+      kind: 'photo',
+      filename: 'photo-1.jpg',
+      contentType: 'image/jpeg',
+      bytes: await partPhoto(demo.category, i + 1),
+    });
     for (const f of measurementFiles(demo, i + 1)) await attach(userId, id, f);
   }
 }

@@ -128,7 +128,16 @@ function detectors(rand: () => number): DemoListing[] {
 }
 
 function counters(rand: () => number): DemoListing[] {
-  const base = (tech: string, title: string, wl: number, eff: number, dark: number, jitter: number, dead: number, cooling: string): DemoListing => ({
+  const base = (
+    tech: string,
+    title: string,
+    wl: number,
+    eff: number,
+    dark: number,
+    jitter: number,
+    dead: number,
+    cooling: string,
+  ): DemoListing => ({
     lab: 'startup',
     category: 'single-photon-detector',
     title,
@@ -164,7 +173,18 @@ function counters(rand: () => number): DemoListing[] {
 }
 
 function lasers(rand: () => number): DemoListing[] {
-  const l = (title: string, type: string, wl: number, tmin: number | undefined, tmax: number | undefined, lw: number, p: number, cls: string, sf: boolean, fibre: boolean): DemoListing => ({
+  const l = (
+    title: string,
+    type: string,
+    wl: number,
+    tmin: number | undefined,
+    tmax: number | undefined,
+    lw: number,
+    p: number,
+    cls: string,
+    sf: boolean,
+    fibre: boolean,
+  ): DemoListing => ({
     lab: 'startup',
     category: 'laser',
     title,
@@ -211,7 +231,20 @@ function crystalsAndOther(): DemoListing[] {
       priceCents: 240000,
       currency: 'EUR',
       shipsTo: ['EU', 'UK', 'US'],
-      specs: { material: 'PPKTP', polingPeriodsUm: [24.7], phaseMatching: 'type-0', pumpWavelengthNm: 775, signalWavelengthNm: 1550, idlerWavelengthNm: 1550, lengthMm: 10, widthMm: 1, heightMm: 2, phaseMatchingTemperatureC: 62, coatings: 'AR 775/1550 nm both faces', ovenIncluded: true },
+      specs: {
+        material: 'PPKTP',
+        polingPeriodsUm: [24.7],
+        phaseMatching: 'type-0',
+        pumpWavelengthNm: 775,
+        signalWavelengthNm: 1550,
+        idlerWavelengthNm: 1550,
+        lengthMm: 10,
+        widthMm: 1,
+        heightMm: 2,
+        phaseMatchingTemperatureC: 62,
+        coatings: 'AR 775/1550 nm both faces',
+        ovenIncluded: true,
+      },
       hazards: ['fragile'],
       inReview: false,
     },
@@ -225,7 +258,15 @@ function crystalsAndOther(): DemoListing[] {
       priceCents: 180000,
       currency: 'EUR',
       shipsTo: ['EU'],
-      specs: { material: 'PPKTP', polingPeriodsUm: [9.0], phaseMatching: 'type-0', pumpWavelengthNm: 532, signalWavelengthNm: 1064, lengthMm: 15, ovenIncluded: false },
+      specs: {
+        material: 'PPKTP',
+        polingPeriodsUm: [9.0],
+        phaseMatching: 'type-0',
+        pumpWavelengthNm: 532,
+        signalWavelengthNm: 1064,
+        lengthMm: 15,
+        ovenIncluded: false,
+      },
     },
     {
       lab: 'squeezing',
@@ -237,7 +278,15 @@ function crystalsAndOther(): DemoListing[] {
       priceCents: 95000,
       currency: 'EUR',
       shipsTo: ['WORLD'],
-      specs: { material: 'PPKTP', polingPeriodsUm: [10.0], phaseMatching: 'type-II', pumpWavelengthNm: 405, signalWavelengthNm: 810, lengthMm: 20, ovenIncluded: true },
+      specs: {
+        material: 'PPKTP',
+        polingPeriodsUm: [10.0],
+        phaseMatching: 'type-II',
+        pumpWavelengthNm: 405,
+        signalWavelengthNm: 810,
+        lengthMm: 20,
+        ovenIncluded: true,
+      },
     },
     {
       lab: 'cavity',
@@ -249,7 +298,14 @@ function crystalsAndOther(): DemoListing[] {
       priceCents: 160000,
       currency: 'EUR',
       shipsTo: ['EU', 'UK'],
-      specs: { componentType: 'electro-optic-modulator', wavelengthMinNm: 760, wavelengthMaxNm: 800, insertionLossDb: 3.5, halfWaveVoltageV: 3, bandwidthHz: 10e9 },
+      specs: {
+        componentType: 'electro-optic-modulator',
+        wavelengthMinNm: 760,
+        wavelengthMaxNm: 800,
+        insertionLossDb: 3.5,
+        halfWaveVoltageV: 3,
+        bandwidthHz: 10e9,
+      },
       hazards: ['high-voltage'],
     },
     {
@@ -262,7 +318,14 @@ function crystalsAndOther(): DemoListing[] {
       priceCents: 85000,
       currency: 'EUR',
       shipsTo: ['EU', 'UK', 'US'],
-      specs: { componentType: 'isolator', wavelengthMinNm: 850, wavelengthMaxNm: 870, apertureMm: 5, insertionLossDb: 0.8, isolationDb: 55 },
+      specs: {
+        componentType: 'isolator',
+        wavelengthMinNm: 850,
+        wavelengthMaxNm: 870,
+        apertureMm: 5,
+        insertionLossDb: 0.8,
+        isolationDb: 55,
+      },
     },
     {
       lab: 'startup',
@@ -329,7 +392,16 @@ export async function seedListings(labIds: Record<DemoListing['lab'], string>, c
     const approvedAt = start + i * 3600_000 * 7;
     const published: PublishedListing | null = d.inReview
       ? null
-      : { title: parsed.title, description: parsed.description, condition: parsed.condition, priceCents: parsed.priceCents, currency: parsed.currency, shipsTo: parsed.shipsTo, specs: parsed.specs as Record<string, unknown>, approvedAt };
+      : {
+          title: parsed.title,
+          description: parsed.description,
+          condition: parsed.condition,
+          priceCents: parsed.priceCents,
+          currency: parsed.currency,
+          shipsTo: parsed.shipsTo,
+          specs: parsed.specs as Record<string, unknown>,
+          approvedAt,
+        };
     const { id } = await buildListing({
       labId: labIds[d.lab],
       createdBy: createdBy[d.lab],

@@ -22,7 +22,9 @@ export const DEMO_ACCOUNTS = {
 } as const;
 
 export async function isEmpty(): Promise<boolean> {
-  const [row] = await getDb().select({ n: sql<number>`count(*)` }).from(users);
+  const [row] = await getDb()
+    .select({ n: sql<number>`count(*)` })
+    .from(users);
   return (row?.n ?? 0) === 0;
 }
 

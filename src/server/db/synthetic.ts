@@ -25,7 +25,14 @@ export function gaussian(rand: () => number): () => number {
 }
 
 /** Intensity ring-down of a symmetric cavity: τ = L/(c·(1 − R)) (physics.md 1.8b), with noise of `noise` × the amplitude. */
-export function ringdownCsv(opts: { tauS: number; lengthM: number; wavelengthNm: number; noise?: number; points?: number; seed?: number }): string {
+export function ringdownCsv(opts: {
+  tauS: number;
+  lengthM: number;
+  wavelengthNm: number;
+  noise?: number;
+  points?: number;
+  seed?: number;
+}): string {
   const n = opts.points ?? 400;
   const normal = gaussian(seededRandom(opts.seed ?? 1));
   const amplitude = 1000;
@@ -44,7 +51,13 @@ export function tauForMirrorLoss(perMirrorLossPpm: number, lengthM: number): num
 }
 
 /** A coating's transmission rising towards the band edges, loss nearly flat, with small noise. */
-export function spectrumCsv(opts: { bandMinNm: number; bandMaxNm: number; transmissionPpm: number; lossPpm: number; seed?: number }): string {
+export function spectrumCsv(opts: {
+  bandMinNm: number;
+  bandMaxNm: number;
+  transmissionPpm: number;
+  lossPpm: number;
+  seed?: number;
+}): string {
   const rand = seededRandom(opts.seed ?? 2);
   const centre = (opts.bandMinNm + opts.bandMaxNm) / 2;
   const half = (opts.bandMaxNm - opts.bandMinNm) / 2;
@@ -74,13 +87,20 @@ export function efficiencyCsv(opts: { wavelengthNm: number; efficiency: number; 
 }
 
 const SHAPES: Record<Category, (accent: string) => string> = {
-  'cavity-mirror': (a) => `<circle cx="600" cy="450" r="260" fill="#e9edf2" stroke="#8a94a6" stroke-width="18"/><circle cx="600" cy="450" r="190" fill="url(#coat)"/><ellipse cx="540" cy="380" rx="70" ry="34" fill="#ffffff" opacity="0.55"/><circle cx="600" cy="450" r="190" fill="none" stroke="${a}" stroke-width="4" opacity="0.5"/>`,
-  photodiode: (a) => `<rect x="430" y="300" width="340" height="300" rx="26" fill="#2b3342"/><circle cx="600" cy="450" r="80" fill="url(#coat)" stroke="${a}" stroke-width="6"/><rect x="520" y="600" width="14" height="170" fill="#b9b5a8"/><rect x="666" y="600" width="14" height="170" fill="#b9b5a8"/>`,
-  'balanced-detector': (a) => `<rect x="300" y="280" width="600" height="340" rx="20" fill="#3a4457"/><circle cx="480" cy="450" r="58" fill="url(#coat)" stroke="${a}" stroke-width="5"/><circle cx="720" cy="450" r="58" fill="url(#coat)" stroke="${a}" stroke-width="5"/><rect x="560" y="640" width="80" height="40" fill="#b9b5a8"/>`,
-  'single-photon-detector': (a) => `<rect x="340" y="250" width="520" height="400" rx="30" fill="#232a36"/><rect x="380" y="290" width="440" height="120" rx="10" fill="#0f1520"/><circle cx="460" cy="540" r="36" fill="${a}"/><circle cx="600" cy="540" r="36" fill="${a}" opacity="0.7"/><circle cx="740" cy="540" r="36" fill="${a}" opacity="0.4"/>`,
-  laser: (a) => `<rect x="260" y="340" width="560" height="220" rx="16" fill="#3b4252"/><rect x="820" y="420" width="70" height="60" fill="#8a94a6"/><rect x="890" y="440" width="150" height="20" fill="${a}" opacity="0.9"/>`,
-  'nonlinear-crystal': (a) => `<polygon points="420,360 780,330 820,540 460,570" fill="url(#coat)" stroke="#8a94a6" stroke-width="6"/><g stroke="${a}" stroke-width="3" opacity="0.6">${Array.from({ length: 12 }, (_, i) => `<line x1="${450 + i * 30}" y1="${358 - i * 2.5}" x2="${490 + i * 30}" y2="${568 - i * 2.5}"/>`).join('')}</g>`,
-  other: (a) => `<rect x="360" y="360" width="480" height="180" rx="90" fill="#4a5568"/><circle cx="360" cy="450" r="40" fill="${a}"/><circle cx="840" cy="450" r="40" fill="${a}"/>`,
+  'cavity-mirror': (a) =>
+    `<circle cx="600" cy="450" r="260" fill="#e9edf2" stroke="#8a94a6" stroke-width="18"/><circle cx="600" cy="450" r="190" fill="url(#coat)"/><ellipse cx="540" cy="380" rx="70" ry="34" fill="#ffffff" opacity="0.55"/><circle cx="600" cy="450" r="190" fill="none" stroke="${a}" stroke-width="4" opacity="0.5"/>`,
+  photodiode: (a) =>
+    `<rect x="430" y="300" width="340" height="300" rx="26" fill="#2b3342"/><circle cx="600" cy="450" r="80" fill="url(#coat)" stroke="${a}" stroke-width="6"/><rect x="520" y="600" width="14" height="170" fill="#b9b5a8"/><rect x="666" y="600" width="14" height="170" fill="#b9b5a8"/>`,
+  'balanced-detector': (a) =>
+    `<rect x="300" y="280" width="600" height="340" rx="20" fill="#3a4457"/><circle cx="480" cy="450" r="58" fill="url(#coat)" stroke="${a}" stroke-width="5"/><circle cx="720" cy="450" r="58" fill="url(#coat)" stroke="${a}" stroke-width="5"/><rect x="560" y="640" width="80" height="40" fill="#b9b5a8"/>`,
+  'single-photon-detector': (a) =>
+    `<rect x="340" y="250" width="520" height="400" rx="30" fill="#232a36"/><rect x="380" y="290" width="440" height="120" rx="10" fill="#0f1520"/><circle cx="460" cy="540" r="36" fill="${a}"/><circle cx="600" cy="540" r="36" fill="${a}" opacity="0.7"/><circle cx="740" cy="540" r="36" fill="${a}" opacity="0.4"/>`,
+  laser: (a) =>
+    `<rect x="260" y="340" width="560" height="220" rx="16" fill="#3b4252"/><rect x="820" y="420" width="70" height="60" fill="#8a94a6"/><rect x="890" y="440" width="150" height="20" fill="${a}" opacity="0.9"/>`,
+  'nonlinear-crystal': (a) =>
+    `<polygon points="420,360 780,330 820,540 460,570" fill="url(#coat)" stroke="#8a94a6" stroke-width="6"/><g stroke="${a}" stroke-width="3" opacity="0.6">${Array.from({ length: 12 }, (_, i) => `<line x1="${450 + i * 30}" y1="${358 - i * 2.5}" x2="${490 + i * 30}" y2="${568 - i * 2.5}"/>`).join('')}</g>`,
+  other: (a) =>
+    `<rect x="360" y="360" width="480" height="180" rx="90" fill="#4a5568"/><circle cx="360" cy="450" r="40" fill="${a}"/><circle cx="840" cy="450" r="40" fill="${a}"/>`,
 };
 
 /** A plain studio-style picture of the kind of part, drawn from shapes (no real product picture). */

@@ -62,7 +62,10 @@ export async function deliverDue(limit = 20): Promise<{ sent: number; failed: nu
         html: m.html ?? undefined,
         messageId: `<${m.id}@lightyard.example>`,
       });
-      await db.update(mailOutbox).set({ status: 'sent', sentAt: new Date(), attempts: m.attempts + 1 }).where(eq(mailOutbox.id, m.id));
+      await db
+        .update(mailOutbox)
+        .set({ status: 'sent', sentAt: new Date(), attempts: m.attempts + 1 })
+        .where(eq(mailOutbox.id, m.id));
       sent++;
     } catch (err) {
       const attempts = m.attempts + 1;

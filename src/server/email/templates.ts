@@ -13,7 +13,11 @@ function layout(title: string, paragraphs: string[], action: { label: string; ur
 }
 
 export function verificationMail(to: string, name: string, url: string): Mail {
-  const lines = [`Hello ${name},`, 'Confirm your e-mail address to list parts and check out on Lightyard.', 'The link works once and expires in 48 hours.'];
+  const lines = [
+    `Hello ${name},`,
+    'Confirm your e-mail address to list parts and check out on Lightyard.',
+    'The link works once and expires in 48 hours.',
+  ];
   return {
     to,
     subject: 'Confirm your e-mail address for Lightyard',

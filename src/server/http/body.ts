@@ -37,11 +37,7 @@ export function zodFieldErrors(issues: { path: (string | number)[]; message: str
 }
 
 /** Reads a JSON body (415 for another type, 413 over the limit, 400 when malformed) and validates it (400 with fields). */
-export async function readJson<T>(
-  request: Request,
-  schema: ZodType<T, ZodTypeDef, unknown>,
-  limit = MAX_JSON_BYTES,
-): Promise<T> {
+export async function readJson<T>(request: Request, schema: ZodType<T, ZodTypeDef, unknown>, limit = MAX_JSON_BYTES): Promise<T> {
   const type = request.headers.get('content-type') ?? '';
   if (!/^application\/json\b/i.test(type)) {
     throw new HttpError(415, 'unsupported_media_type', 'Send the request body as application/json.');

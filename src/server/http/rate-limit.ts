@@ -20,6 +20,8 @@ export async function rateLimit(bucket: string, limit: number, windowMs: number,
   }
   if (row?.count === 1) {
     // first request of a new window: the bucket's older windows are done with
-    await getDb().delete(rateCounters).where(and(eq(rateCounters.bucket, bucket), lt(rateCounters.windowStart, windowStart)));
+    await getDb()
+      .delete(rateCounters)
+      .where(and(eq(rateCounters.bucket, bucket), lt(rateCounters.windowStart, windowStart)));
   }
 }

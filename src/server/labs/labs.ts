@@ -74,7 +74,9 @@ export async function inviteMember(inviter: CurrentUser, lab: { id: string; name
   const { token, hash } = newToken();
   const id = newId();
   await db.transaction(async (tx) => {
-    await tx.insert(labInvites).values({ id, labId: lab.id, email, tokenHash: hash, invitedBy: inviter.id, expiresAt: new Date(Date.now() + INVITE_TTL_MS) });
+    await tx
+      .insert(labInvites)
+      .values({ id, labId: lab.id, email, tokenHash: hash, invitedBy: inviter.id, expiresAt: new Date(Date.now() + INVITE_TTL_MS) });
     const url = new URL(`/invites/accept?token=${token}`, getConfig().APP_ORIGIN).toString();
     await queueMail(labInviteMail(email, inviter.name, lab.name, url), tx);
     await audit({ actorId: inviter.id, action: 'lab.member_invited', subjectType: 'lab', subjectId: lab.id, data: { email } }, tx);
@@ -85,7 +87,14 @@ export async function inviteMember(inviter: CurrentUser, lab: { id: string; name
 
 export async function describeInvite(token: string) {
   const [row] = await getDb()
-    .select({ id: labInvites.id, email: labInvites.email, labName: labs.name, labSlug: labs.slug, acceptedAt: labInvites.acceptedAt, expiresAt: labInvites.expiresAt })
+    .select({
+      id: labInvites.id,
+      email: labInvites.email,
+      labName: labs.name,
+      labSlug: labs.slug,
+      acceptedAt: labInvites.acceptedAt,
+      expiresAt: labInvites.expiresAt,
+    })
     .from(labInvites)
     .innerJoin(labs, eq(labs.id, labInvites.labId))
     .where(eq(labInvites.tokenHash, hashToken(token)))
@@ -96,7 +105,11 @@ export async function describeInvite(token: string) {
 /** Joins the lab named by the invitation. The signed-in account must be the invited address; opening the link proves it. */
 export async function acceptInvite(user: CurrentUser, token: string) {
   const db = getDb();
-  const [invite] = await db.select().from(labInvites).where(eq(labInvites.tokenHash, hashToken(token))).limit(1);
+  const [invite] = await db
+    .select()
+    .from(labInvites)
+    .where(eq(labInvites.tokenHash, hashToken(token)))
+    .limit(1);
   if (!invite || invite.acceptedAt || invite.expiresAt.getTime() <= Date.now()) {
     throw new HttpError(400, 'invalid_token', 'This invitation is invalid, used or expired. Ask the lab owner for a new one.');
   }

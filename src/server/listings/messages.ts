@@ -58,7 +58,13 @@ export async function requireThreadParticipant(user: CurrentUser, threadId: stri
 
 export async function threadMessages(threadId: string) {
   return getDb()
-    .select({ id: listingMessages.id, body: listingMessages.body, createdAt: listingMessages.createdAt, authorId: listingMessages.authorId, authorName: users.name })
+    .select({
+      id: listingMessages.id,
+      body: listingMessages.body,
+      createdAt: listingMessages.createdAt,
+      authorId: listingMessages.authorId,
+      authorName: users.name,
+    })
     .from(listingMessages)
     .leftJoin(users, eq(users.id, listingMessages.authorId))
     .where(eq(listingMessages.threadId, threadId))
@@ -93,7 +99,15 @@ export async function myThreads(user: CurrentUser) {
   const labIds = user.labs.map((l) => l.id);
   const db = getDb();
   const rows = await db
-    .select({ id: listingThreads.id, listingId: listings.id, title: listings.title, buyerId: listingThreads.buyerId, buyerName: users.name, lastMessageAt: listingThreads.lastMessageAt, labId: listings.labId })
+    .select({
+      id: listingThreads.id,
+      listingId: listings.id,
+      title: listings.title,
+      buyerId: listingThreads.buyerId,
+      buyerName: users.name,
+      lastMessageAt: listingThreads.lastMessageAt,
+      labId: listings.labId,
+    })
     .from(listingThreads)
     .innerJoin(listings, eq(listings.id, listingThreads.listingId))
     .innerJoin(users, eq(users.id, listingThreads.buyerId))
@@ -106,14 +120,24 @@ export async function reportListing(reporter: CurrentUser, listing: Listing, rea
   const id = newId();
   await getDb().transaction(async (tx) => {
     await tx.insert(listingReports).values({ id, listingId: listing.id, reporterId: reporter.id, reason });
-    await audit({ actorId: reporter.id, action: 'listing.reported', subjectType: 'listing', subjectId: listing.id, data: { reportId: id } }, tx);
+    await audit(
+      { actorId: reporter.id, action: 'listing.reported', subjectType: 'listing', subjectId: listing.id, data: { reportId: id } },
+      tx,
+    );
   });
   return { id };
 }
 
 export async function openReports() {
   return getDb()
-    .select({ id: listingReports.id, reason: listingReports.reason, createdAt: listingReports.createdAt, listingId: listings.id, title: listings.title, reporter: users.name })
+    .select({
+      id: listingReports.id,
+      reason: listingReports.reason,
+      createdAt: listingReports.createdAt,
+      listingId: listings.id,
+      title: listings.title,
+      reporter: users.name,
+    })
     .from(listingReports)
     .innerJoin(listings, eq(listings.id, listingReports.listingId))
     .leftJoin(users, eq(users.id, listingReports.reporterId))
@@ -122,7 +146,17 @@ export async function openReports() {
 }
 
 export async function resolveReport(moderator: CurrentUser, reportId: string) {
-  const rows = await getDb().update(listingReports).set({ status: 'resolved', resolvedBy: moderator.id }).where(eq(listingReports.id, reportId)).returning({ listingId: listingReports.listingId });
+  const rows = await getDb()
+    .update(listingReports)
+    .set({ status: 'resolved', resolvedBy: moderator.id })
+    .where(eq(listingReports.id, reportId))
+    .returning({ listingId: listingReports.listingId });
   if (!rows.length) throw notFound('No such report.');
-  await audit({ actorId: moderator.id, action: 'moderation.report_resolved', subjectType: 'listing', subjectId: rows[0]!.listingId, data: { reportId } });
+  await audit({
+    actorId: moderator.id,
+    action: 'moderation.report_resolved',
+    subjectType: 'listing',
+    subjectId: rows[0]!.listingId,
+    data: { reportId },
+  });
 }

@@ -54,7 +54,8 @@ export function chooseLab(user: CurrentUser, labId?: string): string {
     return labId;
   }
   if (user.labs.length === 0) throw new HttpError(403, 'forbidden', 'Create a lab or join one before listing parts.');
-  if (user.labs.length > 1) throw new HttpError(400, 'validation_failed', 'You are in several labs: say which one lists this part.', { labId: 'Choose a lab.' });
+  if (user.labs.length > 1)
+    throw new HttpError(400, 'validation_failed', 'You are in several labs: say which one lists this part.', { labId: 'Choose a lab.' });
   return user.labs[0]!.id;
 }
 
@@ -63,12 +64,27 @@ export async function createListing(user: CurrentUser, labId: string, input: Lis
   const db = getDb();
   await db.transaction(async (tx) => {
     await tx.insert(listings).values({ id, labId, createdBy: user.id, status: 'draft', ...input });
-    await audit({ actorId: user.id, action: 'listing.created', subjectType: 'listing', subjectId: id, data: { title: input.title, category: input.category } }, tx);
+    await audit(
+      {
+        actorId: user.id,
+        action: 'listing.created',
+        subjectType: 'listing',
+        subjectId: id,
+        data: { title: input.title, category: input.category },
+      },
+      tx,
+    );
   });
   return (await db.select().from(listings).where(eq(listings.id, id)))[0]!;
 }
 
-async function bump(listing: Listing, set: Partial<Listing>, actor: CurrentUser, action: string, data?: Record<string, unknown>): Promise<Listing> {
+async function bump(
+  listing: Listing,
+  set: Partial<Listing>,
+  actor: CurrentUser,
+  action: string,
+  data?: Record<string, unknown>,
+): Promise<Listing> {
   const db = getDb();
   const updated = await db.transaction(async (tx) => {
     const rows = await tx
@@ -90,14 +106,20 @@ function changedFields(listing: Listing, patch: Partial<ListingFields>): string[
     .map(([k]) => k);
 }
 
-export async function updateListing(actor: CurrentUser, listing: Listing, patch: Partial<ListingFields>, expectedVersion?: number): Promise<Listing> {
+export async function updateListing(
+  actor: CurrentUser,
+  listing: Listing,
+  patch: Partial<ListingFields>,
+  expectedVersion?: number,
+): Promise<Listing> {
   if (expectedVersion !== undefined && expectedVersion !== listing.version) {
     throw conflict('This listing changed since you opened it. Reload it to see the latest version.');
   }
   if (listing.status === 'archived' || listing.status === 'rejected') {
     throw conflict(`A ${listing.status} listing cannot be edited. Duplicate it to list the part again.`);
   }
-  if (patch.category && patch.category !== listing.category) throw new HttpError(400, 'validation_failed', 'The category of a listing cannot change.', { category: 'Fixed once created.' });
+  if (patch.category && patch.category !== listing.category)
+    throw new HttpError(400, 'validation_failed', 'The category of a listing cannot change.', { category: 'Fixed once created.' });
   const changed = changedFields(listing, patch);
   if (!changed.length) return listing;
   const set: Partial<Listing> = { ...patch };
@@ -113,7 +135,10 @@ export async function updateListing(actor: CurrentUser, listing: Listing, patch:
       set.status = quantity === 0 ? 'sold-out' : 'live';
     }
   }
-  return bump(listing, set, actor, 'listing.updated', { fields: changed, ...(set.status && set.status !== listing.status ? { status: set.status } : {}) });
+  return bump(listing, set, actor, 'listing.updated', {
+    fields: changed,
+    ...(set.status && set.status !== listing.status ? { status: set.status } : {}),
+  });
 }
 
 export async function submitListing(actor: CurrentUser, listing: Listing): Promise<Listing> {
@@ -147,10 +172,17 @@ export async function duplicateListing(actor: CurrentUser, listing: Listing): Pr
 
 export type ModerationAction = 'approve' | 'request-changes' | 'reject';
 
-export async function moderateListing(moderator: CurrentUser, listing: Listing, action: ModerationAction, reason?: string): Promise<Listing> {
+export async function moderateListing(
+  moderator: CurrentUser,
+  listing: Listing,
+  action: ModerationAction,
+  reason?: string,
+): Promise<Listing> {
   if (listing.status !== 'in-review') throw conflict(`Only listings in review can be moderated; this one is ${listing.status}.`);
   if (action !== 'approve' && !reason?.trim()) {
-    throw new HttpError(400, 'validation_failed', 'Say what the seller should change, or why it is rejected.', { reason: 'A reason is required.' });
+    throw new HttpError(400, 'validation_failed', 'Say what the seller should change, or why it is rejected.', {
+      reason: 'A reason is required.',
+    });
   }
   const set: Partial<Listing> =
     action === 'approve'
@@ -163,7 +195,11 @@ export async function moderateListing(moderator: CurrentUser, listing: Listing, 
   return updated;
 }
 
-export async function flagListing(moderator: CurrentUser, listing: Listing, flags: Pick<Listing, 'hazards' | 'exportControlled' | 'exportNote'>): Promise<Listing> {
+export async function flagListing(
+  moderator: CurrentUser,
+  listing: Listing,
+  flags: Pick<Listing, 'hazards' | 'exportControlled' | 'exportNote'>,
+): Promise<Listing> {
   return bump(listing, flags, moderator, 'moderation.flags', { ...flags });
 }
 
@@ -175,7 +211,8 @@ function decisionMail(l: Listing, action: ModerationAction, reason?: string) {
       : action === 'request-changes'
         ? `A moderator asks for changes to "${l.title}" before it goes live:\n\n${reason}`
         : `"${l.title}" was rejected by a moderator:\n\n${reason}`;
-  const subject = action === 'approve' ? `Live: ${l.title}` : action === 'request-changes' ? `Changes requested: ${l.title}` : `Rejected: ${l.title}`;
+  const subject =
+    action === 'approve' ? `Live: ${l.title}` : action === 'request-changes' ? `Changes requested: ${l.title}` : `Rejected: ${l.title}`;
   return { subject, text: `${what}\n\n${url}\n` };
 }
 
@@ -222,7 +259,10 @@ export async function listPublic(q: ListingQuery) {
       .orderBy(desc(sql`json_extract(${listings.published}, '$.approvedAt')`))
       .limit(q.limit)
       .offset(q.offset),
-    db.select({ n: sql<number>`count(*)` }).from(listings).where(where),
+    db
+      .select({ n: sql<number>`count(*)` })
+      .from(listings)
+      .where(where),
   ]);
   return { total: n, items: rows.map((r) => publicShape(r.listing, { name: r.labName, country: r.labCountry })) };
 }
@@ -231,11 +271,18 @@ export async function listPublic(q: ListingQuery) {
 export async function listMine(user: CurrentUser, q: ListingQuery & { status?: ListingStatus }) {
   const labIds = user.labs.map((l) => l.id);
   if (!labIds.length) return { total: 0, items: [] };
-  const where = and(inArray(listings.labId, labIds), q.category ? eq(listings.category, q.category) : undefined, q.status ? eq(listings.status, q.status) : undefined);
+  const where = and(
+    inArray(listings.labId, labIds),
+    q.category ? eq(listings.category, q.category) : undefined,
+    q.status ? eq(listings.status, q.status) : undefined,
+  );
   const db = getDb();
   const [rows, [{ n } = { n: 0 }]] = await Promise.all([
     db.select().from(listings).where(where).orderBy(desc(listings.updatedAt)).limit(q.limit).offset(q.offset),
-    db.select({ n: sql<number>`count(*)` }).from(listings).where(where),
+    db
+      .select({ n: sql<number>`count(*)` })
+      .from(listings)
+      .where(where),
   ]);
   return { total: n, items: rows.map(ownerShape) };
 }

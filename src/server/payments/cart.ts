@@ -12,7 +12,9 @@ export async function addToCart(user: CurrentUser, listingId: string, quantity: 
   if (!listing || !isPublic(listing)) throw notFound('No such listing.');
   if (user.labs.some((l) => l.id === listing.labId)) throw conflict('This is your own lab’s listing.');
   if (listing.status !== 'live' || listing.quantity < quantity) {
-    throw conflict(listing.quantity === 0 ? 'This listing is sold out.' : `Only ${listing.quantity} available.`, { quantity: `At most ${listing.quantity}.` });
+    throw conflict(listing.quantity === 0 ? 'This listing is sold out.' : `Only ${listing.quantity} available.`, {
+      quantity: `At most ${listing.quantity}.`,
+    });
   }
   await db
     .insert(cartItems)
@@ -22,7 +24,10 @@ export async function addToCart(user: CurrentUser, listingId: string, quantity: 
 }
 
 export async function removeFromCart(user: CurrentUser, itemId: string) {
-  const rows = await getDb().delete(cartItems).where(and(eq(cartItems.id, itemId), eq(cartItems.userId, user.id))).returning({ id: cartItems.id });
+  const rows = await getDb()
+    .delete(cartItems)
+    .where(and(eq(cartItems.id, itemId), eq(cartItems.userId, user.id)))
+    .returning({ id: cartItems.id });
   if (!rows.length) throw notFound('That item is not in your cart.');
   return getCart(user);
 }

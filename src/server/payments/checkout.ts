@@ -28,14 +28,19 @@ export async function startCheckout(user: CurrentUser, input: { shipTo?: Region;
   const cart = await getCart(user);
   if (!cart.items.length) throw new HttpError(400, 'validation_failed', 'Your cart is empty.');
   const currencies = Object.keys(cart.totals);
-  if (currencies.length > 1) throw conflict(`Your cart mixes ${currencies.join(' and ')}. Check out one currency at a time: remove the other items first.`);
+  if (currencies.length > 1)
+    throw conflict(`Your cart mixes ${currencies.join(' and ')}. Check out one currency at a time: remove the other items first.`);
   const currency = currencies[0]!;
-  const [buyerLab] = user.labs.length ? await getDb().select({ country: labs.country }).from(labs).where(eq(labs.id, user.labs[0]!.id)) : [];
+  const [buyerLab] = user.labs.length
+    ? await getDb().select({ country: labs.country }).from(labs).where(eq(labs.id, user.labs[0]!.id))
+    : [];
   const destination = destinationOf(user, input.shipTo, buyerLab?.country);
   const fields: Record<string, string> = {};
   for (const i of cart.items) {
-    if (!shipsTo(i.shipsTo, destination)) fields[`items.${i.listingId}`] = `“${i.title}” does not ship to ${destination ?? 'your region'} (ships to ${i.shipsTo.join(', ')}).`;
-    if (i.exportControlled && !input.endUse?.[i.listingId]) fields[`endUse.${i.listingId}`] = `“${i.title}” is export-controlled: state its end use first.`;
+    if (!shipsTo(i.shipsTo, destination))
+      fields[`items.${i.listingId}`] = `“${i.title}” does not ship to ${destination ?? 'your region'} (ships to ${i.shipsTo.join(', ')}).`;
+    if (i.exportControlled && !input.endUse?.[i.listingId])
+      fields[`endUse.${i.listingId}`] = `“${i.title}” is export-controlled: state its end use first.`;
   }
   if (!destination && !Object.keys(fields).length && cart.items.some((i) => !i.shipsTo.includes('WORLD'))) {
     throw new HttpError(400, 'validation_failed', 'Say where the parts should go.', { shipTo: 'Choose a region.' });
@@ -71,10 +76,36 @@ export async function startCheckout(user: CurrentUser, input: { shipTo?: Region;
         const orderId = newId();
         orderIds.push(orderId);
         const subtotal = items.reduce((s, i) => s + i.unitPriceCents * i.quantity, 0);
-        const endUse = items.map((i) => (i.exportControlled ? `${i.title}: ${input.endUse![i.listingId]}` : null)).filter(Boolean).join('\n') || null;
-        await tx.insert(orders).values({ id: orderId, checkoutId, buyerId: user.id, labId, currency, subtotalCents: subtotal, feeBps: c.PLATFORM_FEE_BPS, feeCents: Math.round((subtotal * c.PLATFORM_FEE_BPS) / 10_000), endUseStatement: endUse });
-        await tx.insert(orderItems).values(items.map((i) => ({ id: newId(), orderId, listingId: i.listingId, title: i.title, unitPriceCents: i.unitPriceCents, quantity: i.quantity })));
-        await audit({ actorId: user.id, action: 'order.created', subjectType: 'order', subjectId: orderId, data: { checkoutId, subtotal, currency } }, tx);
+        const endUse =
+          items
+            .map((i) => (i.exportControlled ? `${i.title}: ${input.endUse![i.listingId]}` : null))
+            .filter(Boolean)
+            .join('\n') || null;
+        await tx.insert(orders).values({
+          id: orderId,
+          checkoutId,
+          buyerId: user.id,
+          labId,
+          currency,
+          subtotalCents: subtotal,
+          feeBps: c.PLATFORM_FEE_BPS,
+          feeCents: Math.round((subtotal * c.PLATFORM_FEE_BPS) / 10_000),
+          endUseStatement: endUse,
+        });
+        await tx.insert(orderItems).values(
+          items.map((i) => ({
+            id: newId(),
+            orderId,
+            listingId: i.listingId,
+            title: i.title,
+            unitPriceCents: i.unitPriceCents,
+            quantity: i.quantity,
+          })),
+        );
+        await audit(
+          { actorId: user.id, action: 'order.created', subjectType: 'order', subjectId: orderId, data: { checkoutId, subtotal, currency } },
+          tx,
+        );
       }
     });
   } catch (e) {
@@ -88,7 +119,10 @@ export async function startCheckout(user: CurrentUser, input: { shipTo?: Region;
     session = await getProvider().checkout.sessions.create(
       {
         mode: 'payment',
-        line_items: cart.items.map((i) => ({ price_data: { currency: currency.toLowerCase(), unit_amount: i.unitPriceCents, product_data: { name: i.title } }, quantity: i.quantity })),
+        line_items: cart.items.map((i) => ({
+          price_data: { currency: currency.toLowerCase(), unit_amount: i.unitPriceCents, product_data: { name: i.title } },
+          quantity: i.quantity,
+        })),
         success_url: `${c.APP_ORIGIN}/orders/paid?session_id={CHECKOUT_SESSION_ID}`,
         cancel_url: `${c.APP_ORIGIN}/cart?cancelled=${checkoutId}`,
         client_reference_id: checkoutId,
@@ -124,7 +158,10 @@ export async function releaseReservation(checkoutId: string, status: 'expired' |
       .where(and(eq(checkouts.id, checkoutId), eq(checkouts.status, 'open'), isNull(checkouts.releasedAt)))
       .returning({ id: checkouts.id });
     if (!claimed.length) return false;
-    const pending = await tx.select({ id: orders.id }).from(orders).where(and(eq(orders.checkoutId, checkoutId), eq(orders.status, 'pending_payment')));
+    const pending = await tx
+      .select({ id: orders.id })
+      .from(orders)
+      .where(and(eq(orders.checkoutId, checkoutId), eq(orders.status, 'pending_payment')));
     const ids = pending.map((o) => o.id);
     if (ids.length) {
       const items = await tx.select().from(orderItems).where(inArray(orderItems.orderId, ids));
@@ -141,7 +178,17 @@ export async function releaseReservation(checkoutId: string, status: 'expired' |
         released.push(i.listingId);
       }
       await tx.update(orders).set({ status: 'cancelled', updatedAt: new Date() }).where(inArray(orders.id, ids));
-      for (const id of ids) await audit({ actorId: null, action: 'order.cancelled', subjectType: 'order', subjectId: id, data: { reason: status === 'expired' ? 'reservation expired' : 'payment could not start' } }, tx);
+      for (const id of ids)
+        await audit(
+          {
+            actorId: null,
+            action: 'order.cancelled',
+            subjectType: 'order',
+            subjectId: id,
+            data: { reason: status === 'expired' ? 'reservation expired' : 'payment could not start' },
+          },
+          tx,
+        );
     }
     return true;
   });

@@ -19,7 +19,14 @@ import { formatMoney } from '../../lib/format';
 
 const orderUrl = (id: string) => new URL(`/orders/${id}`, getConfig().APP_ORIGIN).toString();
 
-async function transition(order: Order, from: OrderStatus[], set: Partial<Order>, actorId: string | null, action: string, data?: Record<string, unknown>): Promise<Order | null> {
+async function transition(
+  order: Order,
+  from: OrderStatus[],
+  set: Partial<Order>,
+  actorId: string | null,
+  action: string,
+  data?: Record<string, unknown>,
+): Promise<Order | null> {
   return getDb().transaction(async (tx) => {
     const rows = await tx
       .update(orders)
@@ -27,7 +34,10 @@ async function transition(order: Order, from: OrderStatus[], set: Partial<Order>
       .where(and(eq(orders.id, order.id), inArray(orders.status, from)))
       .returning();
     if (!rows.length) return null;
-    await audit({ actorId, action, subjectType: 'order', subjectId: order.id, data: { from: order.status, to: rows[0]!.status, ...data } }, tx);
+    await audit(
+      { actorId, action, subjectType: 'order', subjectId: order.id, data: { from: order.status, to: rows[0]!.status, ...data } },
+      tx,
+    );
     return rows[0]!;
   });
 }
@@ -104,29 +114,61 @@ export async function markCheckoutPaid(checkoutId: string, paymentIntentId: stri
   const db = getDb();
   const [co] = await db.select().from(checkouts).where(eq(checkouts.id, checkoutId));
   if (!co) return;
-  await db.update(checkouts).set({ status: 'complete' }).where(and(eq(checkouts.id, checkoutId), eq(checkouts.status, 'open')));
-  const pending = await db.select().from(orders).where(and(eq(orders.checkoutId, checkoutId), eq(orders.status, 'pending_payment')));
+  await db
+    .update(checkouts)
+    .set({ status: 'complete' })
+    .where(and(eq(checkouts.id, checkoutId), eq(checkouts.status, 'open')));
+  const pending = await db
+    .select()
+    .from(orders)
+    .where(and(eq(orders.checkoutId, checkoutId), eq(orders.status, 'pending_payment')));
   for (const o of pending) {
     const paid = await transition(o, ['pending_payment'], { status: 'paid', paidAt: new Date(), paymentIntentId }, null, 'order.paid');
-    if (paid) await tell(paid, 'Order paid', `The order for ${formatMoney(paid.subtotalCents, paid.currency)} is paid. Lightyard holds the money until the buyer receives the part.`);
+    if (paid)
+      await tell(
+        paid,
+        'Order paid',
+        `The order for ${formatMoney(paid.subtotalCents, paid.currency)} is paid. Lightyard holds the money until the buyer receives the part.`,
+      );
   }
 }
 
 export async function shipOrder(user: CurrentUser, order: Order, carrier: string, trackingNumber: string) {
   if (!user.labs.some((l) => l.id === order.labId)) throw forbidden('Only the selling lab marks an order shipped.');
   const ends = new Date(Date.now() + getConfig().INSPECTION_DAYS * 86_400_000);
-  const shipped = await transition(order, ['paid'], { status: 'shipped', carrier, trackingNumber, shippedAt: new Date(), inspectionEndsAt: ends }, user.id, 'order.shipped', { carrier, trackingNumber });
+  const shipped = await transition(
+    order,
+    ['paid'],
+    { status: 'shipped', carrier, trackingNumber, shippedAt: new Date(), inspectionEndsAt: ends },
+    user.id,
+    'order.shipped',
+    { carrier, trackingNumber },
+  );
   if (!shipped) throw conflict(`Only a paid order can be shipped; this one is ${order.status.replace('_', ' ')}.`);
-  await tell(shipped, 'Order shipped', `Shipped with ${carrier}, tracking number ${trackingNumber}. The buyer has until ${ends.toISOString().slice(0, 10)} to inspect the part.`);
+  await tell(
+    shipped,
+    'Order shipped',
+    `Shipped with ${carrier}, tracking number ${trackingNumber}. The buyer has until ${ends.toISOString().slice(0, 10)} to inspect the part.`,
+  );
   return shipped;
 }
 
 /** The buyer accepts the part: received, then completed with the lab's transfer. */
 export async function confirmReceipt(user: CurrentUser | null, order: Order) {
   if (user && order.buyerId !== user.id) throw forbidden('Only the buyer confirms receipt.');
-  const received = await transition(order, ['shipped'], { status: 'received', receivedAt: new Date() }, user?.id ?? null, user ? 'order.received' : 'order.received_automatically');
+  const received = await transition(
+    order,
+    ['shipped'],
+    { status: 'received', receivedAt: new Date() },
+    user?.id ?? null,
+    user ? 'order.received' : 'order.received_automatically',
+  );
   if (!received) throw conflict(`Only a shipped order can be confirmed; this one is ${order.status.replace('_', ' ')}.`);
-  await tell(received, 'Order received', user ? 'The buyer confirmed receipt.' : 'The inspection window ended without a complaint; the order counts as received.');
+  await tell(
+    received,
+    'Order received',
+    user ? 'The buyer confirmed receipt.' : 'The inspection window ended without a complaint; the order counts as received.',
+  );
   return completeOrder(received);
 }
 
@@ -141,18 +183,38 @@ export async function completeOrder(order: Order): Promise<Order> {
   if (net > 0) {
     try {
       const t = await getProvider().transfers.create(
-        { amount: net, currency: order.currency.toLowerCase(), destination: account.providerAccountId, transfer_group: order.checkoutId, metadata: { orderId: order.id } },
+        {
+          amount: net,
+          currency: order.currency.toLowerCase(),
+          destination: account.providerAccountId,
+          transfer_group: order.checkoutId,
+          metadata: { orderId: order.id },
+        },
         { idempotencyKey: `transfer-${order.id}` },
       );
       transferId = t.id;
-      await getDb().insert(transfers).values({ id: t.id, orderId: order.id, labId: order.labId, amountCents: net, currency: order.currency }).onConflictDoNothing();
+      await getDb()
+        .insert(transfers)
+        .values({ id: t.id, orderId: order.id, labId: order.labId, amountCents: net, currency: order.currency })
+        .onConflictDoNothing();
     } catch (err) {
       throw providerUnavailable(err) ?? err;
     }
   }
-  const done = await transition(order, ['received'], { status: 'completed', completedAt: new Date(), transferId }, null, 'order.completed', { transferId, netCents: net });
+  const done = await transition(
+    order,
+    ['received'],
+    { status: 'completed', completedAt: new Date(), transferId },
+    null,
+    'order.completed',
+    { transferId, netCents: net },
+  );
   if (!done) return order;
-  await tell(done, 'Order completed', `${formatMoney(net, done.currency)} (the price minus the ${done.feeBps / 100} % platform fee${done.refundedCents ? ' and refunds' : ''}) is on its way to the lab.`);
+  await tell(
+    done,
+    'Order completed',
+    `${formatMoney(net, done.currency)} (the price minus the ${done.feeBps / 100} % platform fee${done.refundedCents ? ' and refunds' : ''}) is on its way to the lab.`,
+  );
   if (net > 0) await payOut(order.labId, account.providerAccountId, net, order.currency);
   return done;
 }
@@ -165,8 +227,16 @@ async function payOut(labId: string, accountId: string, amountCents: number, cur
 
 export async function requestRefund(user: CurrentUser, order: Order, reason: string) {
   if (order.buyerId !== user.id) throw forbidden('Only the buyer asks for a refund.');
-  if (order.inspectionEndsAt && order.inspectionEndsAt.getTime() < Date.now()) throw conflict('The inspection window of this order has ended.');
-  const r = await transition(order, ['paid', 'shipped'], { status: 'refund_requested', refundReason: reason }, user.id, 'order.refund_requested', { reason });
+  if (order.inspectionEndsAt && order.inspectionEndsAt.getTime() < Date.now())
+    throw conflict('The inspection window of this order has ended.');
+  const r = await transition(
+    order,
+    ['paid', 'shipped'],
+    { status: 'refund_requested', refundReason: reason },
+    user.id,
+    'order.refund_requested',
+    { reason },
+  );
   if (!r) throw conflict(`A refund can be requested for a paid or shipped order; this one is ${order.status.replace('_', ' ')}.`);
   await tell(r, 'Refund requested', `The buyer asks for a refund: ${reason}\n\nA moderator decides.`);
   return r;
@@ -174,37 +244,68 @@ export async function requestRefund(user: CurrentUser, order: Order, reason: str
 
 /** A moderator or admin refunds all or part of the payment through the provider. */
 export async function refundOrder(staff: CurrentUser, order: Order, amountCents: number | undefined, reason: string) {
-  if (!['paid', 'shipped', 'received', 'refund_requested'].includes(order.status)) throw conflict(`This order is ${order.status.replace('_', ' ')}; it cannot be refunded.`);
+  if (!['paid', 'shipped', 'received', 'refund_requested'].includes(order.status))
+    throw conflict(`This order is ${order.status.replace('_', ' ')}; it cannot be refunded.`);
   if (!order.paymentIntentId) throw conflict('This order has no payment to refund.');
   const remaining = order.subtotalCents - order.refundedCents;
   const amount = amountCents ?? remaining;
-  if (amount > remaining) throw new HttpError(400, 'validation_failed', `At most ${formatMoney(remaining, order.currency)} is left to refund.`, { amountCents: 'Too much.' });
+  if (amount > remaining)
+    throw new HttpError(400, 'validation_failed', `At most ${formatMoney(remaining, order.currency)} is left to refund.`, {
+      amountCents: 'Too much.',
+    });
   let refund;
   try {
-    refund = await getProvider().refunds.create({ payment_intent: order.paymentIntentId, amount, reason: 'requested_by_customer', metadata: { orderId: order.id } }, { idempotencyKey: `refund-${order.id}-${order.refundedCents}-${amount}` });
+    refund = await getProvider().refunds.create(
+      { payment_intent: order.paymentIntentId, amount, reason: 'requested_by_customer', metadata: { orderId: order.id } },
+      { idempotencyKey: `refund-${order.id}-${order.refundedCents}-${amount}` },
+    );
   } catch (err) {
     throw providerUnavailable(err) ?? err;
   }
   const full = amount === remaining;
   const resumed: OrderStatus = order.shippedAt ? 'shipped' : 'paid';
   const updated = await getDb().transaction(async (tx) => {
-    await tx.insert(refunds).values({ id: refund.id, orderId: order.id, amountCents: amount, reason, createdBy: staff.id }).onConflictDoNothing();
+    await tx
+      .insert(refunds)
+      .values({ id: refund.id, orderId: order.id, amountCents: amount, reason, createdBy: staff.id })
+      .onConflictDoNothing();
     const rows = await tx
       .update(orders)
-      .set({ refundedCents: sql`${orders.refundedCents} + ${amount}`, status: full ? 'refunded' : order.status === 'refund_requested' ? resumed : order.status, version: sql`${orders.version} + 1`, updatedAt: new Date() })
+      .set({
+        refundedCents: sql`${orders.refundedCents} + ${amount}`,
+        status: full ? 'refunded' : order.status === 'refund_requested' ? resumed : order.status,
+        version: sql`${orders.version} + 1`,
+        updatedAt: new Date(),
+      })
       .where(and(eq(orders.id, order.id), eq(orders.refundedCents, order.refundedCents)))
       .returning();
     if (!rows.length) throw conflict('This order changed meanwhile; reload it.');
-    await audit({ actorId: staff.id, action: full ? 'order.refunded' : 'order.partially_refunded', subjectType: 'order', subjectId: order.id, data: { amount, reason, refundId: refund.id } }, tx);
+    await audit(
+      {
+        actorId: staff.id,
+        action: full ? 'order.refunded' : 'order.partially_refunded',
+        subjectType: 'order',
+        subjectId: order.id,
+        data: { amount, reason, refundId: refund.id },
+      },
+      tx,
+    );
     return rows[0]!;
   });
-  await tell(updated, full ? 'Order refunded' : 'Order partly refunded', `${formatMoney(amount, order.currency)} was refunded to the buyer: ${reason}`);
+  await tell(
+    updated,
+    full ? 'Order refunded' : 'Order partly refunded',
+    `${formatMoney(amount, order.currency)} was refunded to the buyer: ${reason}`,
+  );
   return updated;
 }
 
 /** Orders whose inspection window ended without the buyer's word count as received. */
 export async function receiveOverdue(now = Date.now()) {
-  const due = await getDb().select().from(orders).where(and(eq(orders.status, 'shipped'), lt(orders.inspectionEndsAt, new Date(now))));
+  const due = await getDb()
+    .select()
+    .from(orders)
+    .where(and(eq(orders.status, 'shipped'), lt(orders.inspectionEndsAt, new Date(now))));
   for (const o of due) await confirmReceipt(null, o);
   const waiting = await getDb().select().from(orders).where(eq(orders.status, 'received'));
   for (const o of waiting) await completeOrder(o);

@@ -18,11 +18,23 @@ export async function onboardingLink(owner: CurrentUser, labId: string): Promise
     if (!account) {
       const [lab] = await db.select().from(labs).where(eq(labs.id, labId));
       const created = await getProvider().accounts.create(
-        { type: 'express', country: lab!.country, email: owner.email, metadata: { labId }, capabilities: { transfers: { requested: true } } },
+        {
+          type: 'express',
+          country: lab!.country,
+          email: owner.email,
+          metadata: { labId },
+          capabilities: { transfers: { requested: true } },
+        },
         { idempotencyKey: `account-${labId}` },
       );
       await db.insert(payoutAccounts).values({ labId, providerAccountId: created.id }).onConflictDoNothing();
-      await audit({ actorId: owner.id, action: 'payouts.account_created', subjectType: 'lab', subjectId: labId, data: { account: created.id } });
+      await audit({
+        actorId: owner.id,
+        action: 'payouts.account_created',
+        subjectType: 'lab',
+        subjectId: labId,
+        data: { account: created.id },
+      });
       [account] = await db.select().from(payoutAccounts).where(eq(payoutAccounts.labId, labId));
     }
     const link = await getProvider().accountLinks.create({
@@ -41,12 +53,20 @@ export async function onboardingLink(owner: CurrentUser, labId: string): Promise
 export async function syncAccount(account: Stripe.Account) {
   await getDb()
     .update(payoutAccounts)
-    .set({ detailsSubmitted: !!account.details_submitted, chargesEnabled: !!account.charges_enabled, payoutsEnabled: !!account.payouts_enabled, updatedAt: new Date() })
+    .set({
+      detailsSubmitted: !!account.details_submitted,
+      chargesEnabled: !!account.charges_enabled,
+      payoutsEnabled: !!account.payouts_enabled,
+      updatedAt: new Date(),
+    })
     .where(eq(payoutAccounts.providerAccountId, account.id));
 }
 
 export async function labOfAccount(accountId: string): Promise<string | null> {
-  const [row] = await getDb().select({ labId: payoutAccounts.labId }).from(payoutAccounts).where(eq(payoutAccounts.providerAccountId, accountId));
+  const [row] = await getDb()
+    .select({ labId: payoutAccounts.labId })
+    .from(payoutAccounts)
+    .where(eq(payoutAccounts.providerAccountId, accountId));
   return row?.labId ?? null;
 }
 
@@ -54,7 +74,14 @@ export async function recordPayout(labId: string, p: Stripe.Payout) {
   const status = (PAYOUT_STATUSES as readonly string[]).includes(p.status) ? (p.status as PayoutStatus) : 'pending';
   await getDb()
     .insert(payouts)
-    .values({ id: p.id, labId, amountCents: p.amount, currency: p.currency.toUpperCase(), status, failureMessage: p.failure_message ?? null })
+    .values({
+      id: p.id,
+      labId,
+      amountCents: p.amount,
+      currency: p.currency.toUpperCase(),
+      status,
+      failureMessage: p.failure_message ?? null,
+    })
     .onConflictDoUpdate({ target: payouts.id, set: { status, failureMessage: p.failure_message ?? null, updatedAt: new Date() } });
 }
 
@@ -63,7 +90,16 @@ export async function payoutsView(labId: string) {
   const db = getDb();
   const [account] = await db.select().from(payoutAccounts).where(eq(payoutAccounts.labId, labId));
   const transferRows = await db
-    .select({ id: transfers.id, orderId: transfers.orderId, amountCents: transfers.amountCents, currency: transfers.currency, createdAt: transfers.createdAt, subtotalCents: orders.subtotalCents, feeCents: orders.feeCents, buyer: users.name })
+    .select({
+      id: transfers.id,
+      orderId: transfers.orderId,
+      amountCents: transfers.amountCents,
+      currency: transfers.currency,
+      createdAt: transfers.createdAt,
+      subtotalCents: orders.subtotalCents,
+      feeCents: orders.feeCents,
+      buyer: users.name,
+    })
     .from(transfers)
     .innerJoin(orders, eq(orders.id, transfers.orderId))
     .innerJoin(users, eq(users.id, orders.buyerId))
@@ -71,7 +107,11 @@ export async function payoutsView(labId: string) {
     .orderBy(desc(transfers.createdAt));
   const payoutRows = await db.select().from(payouts).where(eq(payouts.labId, labId)).orderBy(desc(payouts.createdAt));
   const monthly = await db
-    .select({ month: sql<string>`strftime('%Y-%m', ${transfers.createdAt} / 1000, 'unixepoch')`, currency: transfers.currency, cents: sql<number>`sum(${transfers.amountCents})` })
+    .select({
+      month: sql<string>`strftime('%Y-%m', ${transfers.createdAt} / 1000, 'unixepoch')`,
+      currency: transfers.currency,
+      cents: sql<number>`sum(${transfers.amountCents})`,
+    })
     .from(transfers)
     .where(eq(transfers.labId, labId))
     .groupBy(sql`1, 2`)
@@ -95,12 +135,27 @@ export async function payoutsView(labId: string) {
     .where(sql`${orders.labId} = ${labId} and ${orders.status} in ('paid', 'shipped', 'received', 'refund_requested')`)
     .groupBy(orders.currency);
   return {
-    account: account ? { id: account.providerAccountId, detailsSubmitted: account.detailsSubmitted, chargesEnabled: account.chargesEnabled, payoutsEnabled: account.payoutsEnabled } : null,
+    account: account
+      ? {
+          id: account.providerAccountId,
+          detailsSubmitted: account.detailsSubmitted,
+          chargesEnabled: account.chargesEnabled,
+          payoutsEnabled: account.payoutsEnabled,
+        }
+      : null,
     balance,
     balanceError,
     held: heldCents.map((h) => ({ currency: h.currency, amount: h.cents })),
     transfers: transferRows.map((t) => ({ ...t, createdAt: t.createdAt.toISOString() })),
-    payouts: payoutRows.map((p) => ({ id: p.id, amountCents: p.amountCents, currency: p.currency, status: p.status, failureMessage: p.failureMessage, createdAt: p.createdAt.toISOString(), updatedAt: p.updatedAt.toISOString() })),
+    payouts: payoutRows.map((p) => ({
+      id: p.id,
+      amountCents: p.amountCents,
+      currency: p.currency,
+      status: p.status,
+      failureMessage: p.failureMessage,
+      createdAt: p.createdAt.toISOString(),
+      updatedAt: p.updatedAt.toISOString(),
+    })),
     monthly,
   };
 }

@@ -36,7 +36,8 @@ async function handle(event: Stripe.Event): Promise<void> {
     case 'checkout.session.completed': {
       const s = event.data.object;
       const id = await checkoutIdOf(s);
-      if (id && s.payment_status === 'paid') await markCheckoutPaid(id, typeof s.payment_intent === 'string' ? s.payment_intent : (s.payment_intent?.id ?? null));
+      if (id && s.payment_status === 'paid')
+        await markCheckoutPaid(id, typeof s.payment_intent === 'string' ? s.payment_intent : (s.payment_intent?.id ?? null));
       return;
     }
     case 'checkout.session.expired': {
@@ -47,13 +48,27 @@ async function handle(event: Stripe.Event): Promise<void> {
     case 'payment_intent.payment_failed': {
       const pi = event.data.object;
       const checkoutId = pi.metadata?.checkoutId;
-      if (checkoutId) await audit({ actorId: null, action: 'checkout.payment_failed', subjectType: 'checkout', subjectId: checkoutId, data: { message: pi.last_payment_error?.message ?? null } });
+      if (checkoutId)
+        await audit({
+          actorId: null,
+          action: 'checkout.payment_failed',
+          subjectType: 'checkout',
+          subjectId: checkoutId,
+          data: { message: pi.last_payment_error?.message ?? null },
+        });
       return;
     }
     case 'charge.refunded': {
       const ch = event.data.object;
       const pi = typeof ch.payment_intent === 'string' ? ch.payment_intent : ch.payment_intent?.id;
-      if (pi) await audit({ actorId: null, action: 'provider.charge_refunded', subjectType: 'payment_intent', subjectId: pi, data: { amountRefunded: ch.amount_refunded } });
+      if (pi)
+        await audit({
+          actorId: null,
+          action: 'provider.charge_refunded',
+          subjectType: 'payment_intent',
+          subjectId: pi,
+          data: { amountRefunded: ch.amount_refunded },
+        });
       return;
     }
     case 'account.updated':
@@ -62,7 +77,14 @@ async function handle(event: Stripe.Event): Promise<void> {
     case 'transfer.created': {
       const t = event.data.object;
       const orderId = t.metadata?.orderId;
-      if (orderId) await audit({ actorId: null, action: 'provider.transfer_created', subjectType: 'order', subjectId: orderId, data: { transfer: t.id, amount: t.amount } });
+      if (orderId)
+        await audit({
+          actorId: null,
+          action: 'provider.transfer_created',
+          subjectType: 'order',
+          subjectId: orderId,
+          data: { transfer: t.id, amount: t.amount },
+        });
       return;
     }
     case 'payout.paid':
@@ -82,7 +104,11 @@ export async function processEvent(event: Stripe.Event): Promise<boolean> {
   const [seen] = await db.select({ id: providerEvents.id }).from(providerEvents).where(eq(providerEvents.id, event.id));
   if (seen) return false;
   await handle(event);
-  const inserted = await db.insert(providerEvents).values({ id: event.id, type: event.type }).onConflictDoNothing().returning({ id: providerEvents.id });
+  const inserted = await db
+    .insert(providerEvents)
+    .values({ id: event.id, type: event.type })
+    .onConflictDoNothing()
+    .returning({ id: providerEvents.id });
   return inserted.length === 1;
 }
 

@@ -82,18 +82,16 @@ describe('s3 fake', () => {
     expect(listed.Contents?.map((object) => object.Key)).toEqual(['specs/mirror.json']);
 
     await client.send(new DeleteObjectCommand({ Bucket: BUCKET, Key: 'specs/mirror.json' }));
-    await expect(client.send(new HeadObjectCommand({ Bucket: BUCKET, Key: 'specs/mirror.json' }))).rejects.toMatchObject(
-      { $metadata: { httpStatusCode: 404 } },
-    );
+    await expect(client.send(new HeadObjectCommand({ Bucket: BUCKET, Key: 'specs/mirror.json' }))).rejects.toMatchObject({
+      $metadata: { httpStatusCode: 404 },
+    });
   });
 
   test('a presigned PUT from fetch stores exactly the bytes sent', async () => {
     const bytes = randomBytes(64 * 1024);
-    const url = await getSignedUrl(
-      client,
-      new PutObjectCommand({ Bucket: BUCKET, Key: 'uploads/photo.jpg', ContentType: 'image/jpeg' }),
-      { expiresIn: 300 },
-    );
+    const url = await getSignedUrl(client, new PutObjectCommand({ Bucket: BUCKET, Key: 'uploads/photo.jpg', ContentType: 'image/jpeg' }), {
+      expiresIn: 300,
+    });
     const upload = await fetch(url, { method: 'PUT', body: new Uint8Array(bytes), headers: { 'Content-Type': 'image/jpeg' } });
     expect(upload.status).toBe(200);
 

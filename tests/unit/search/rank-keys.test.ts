@@ -198,7 +198,10 @@ describe('cavity rank keys equal evaluateCavityGoal', () => {
     };
     const engine = evaluateCavityGoal(goal, spec);
     expect(engine.verdict).toBe('fits');
-    expectSameKey(cavityKey(cavityQuery(goal), prepare(doc(spec, 'mirror')) as MirrorPrep), engineKey(() => engine));
+    expectSameKey(
+      cavityKey(cavityQuery(goal), prepare(doc(spec, 'mirror')) as MirrorPrep),
+      engineKey(() => engine),
+    );
   });
 
   test('two listings: bestTwoListingPairs gives bestPairs’ pairs over every mirror', () => {

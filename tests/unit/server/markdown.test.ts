@@ -10,7 +10,9 @@ describe('listing descriptions render Markdown safely', () => {
   });
 
   test('scripts, event handlers, javascript: links and raw HTML are removed', () => {
-    const html = renderMarkdown('<script>alert(1)</script><img src=x onerror=alert(2)>[x](javascript:alert(3))<iframe src="https://evil.example"></iframe><b onclick="alert(4)">bold</b>');
+    const html = renderMarkdown(
+      '<script>alert(1)</script><img src=x onerror=alert(2)>[x](javascript:alert(3))<iframe src="https://evil.example"></iframe><b onclick="alert(4)">bold</b>',
+    );
     expect(html).not.toMatch(/<script|onerror|href="javascript:|<iframe|onclick|<img/i);
     expect(renderMarkdown('[x](javascript:alert(3))')).not.toMatch(/href="javascript:/i);
   });

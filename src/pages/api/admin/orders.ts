@@ -20,7 +20,13 @@ export const GET = endpoint(async (ctx) => {
   const rows = await getDb()
     .select()
     .from(orders)
-    .where(and(q.status ? eq(orders.status, q.status) : undefined, q.lab ? eq(orders.labId, q.lab) : undefined, q.since ? gte(orders.createdAt, q.since) : undefined))
+    .where(
+      and(
+        q.status ? eq(orders.status, q.status) : undefined,
+        q.lab ? eq(orders.labId, q.lab) : undefined,
+        q.since ? gte(orders.createdAt, q.since) : undefined,
+      ),
+    )
     .orderBy(desc(orders.createdAt))
     .limit(q.limit);
   return { orders: await Promise.all(rows.map(orderDetail)) };

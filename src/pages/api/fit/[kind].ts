@@ -11,7 +11,14 @@ import {
   qpmPeriod,
   refractiveIndex,
 } from '../../../lib/fit';
-import { FitCavitySchema, FitCountingSchema, FitCrystalSchema, FitLaserSchema, FitModesSchema, FitSqueezingSchema } from '../../../lib/schemas/fit-api';
+import {
+  FitCavitySchema,
+  FitCountingSchema,
+  FitCrystalSchema,
+  FitLaserSchema,
+  FitModesSchema,
+  FitSqueezingSchema,
+} from '../../../lib/schemas/fit-api';
 import { readJson } from '../../../server/http/body';
 import { clientAddress } from '../../../server/http/client-address';
 import { endpoint } from '../../../server/http/endpoint';

@@ -12,7 +12,10 @@ export const GET = endpoint(async (ctx) => {
   const user = requireUser(ctx);
   const { lab } = readQuery(ctx.url, QuerySchema);
   const target = lab ?? (user.labs.length === 1 ? user.labs[0]!.id : null);
-  if (!target) throw new HttpError(400, 'validation_failed', user.labs.length ? 'Say which lab: ?lab=' : 'You are not in a lab.', { lab: 'Choose a lab.' });
+  if (!target)
+    throw new HttpError(400, 'validation_failed', user.labs.length ? 'Say which lab: ?lab=' : 'You are not in a lab.', {
+      lab: 'Choose a lab.',
+    });
   const { lab: l } = await requireLabMember(ctx, target);
   return { lab: { id: l.id, name: l.name }, ...(await payoutsView(l.id)) };
 });

@@ -10,7 +10,8 @@ export const POST = endpoint(async (ctx) => {
   const user = requireUser(ctx);
   const { order, side } = await requireOrderReader(user, ctx.params.id!);
   const { amountCents, reason } = await readJson(ctx.request, RefundSchema);
-  if (hasRole(user, 'moderator', 'admin') && side !== 'buyer') return { order: await orderDetail(await refundOrder(user, order, amountCents, reason)) };
+  if (hasRole(user, 'moderator', 'admin') && side !== 'buyer')
+    return { order: await orderDetail(await refundOrder(user, order, amountCents, reason)) };
   if (side !== 'buyer') throw forbidden('Refunds are asked for by the buyer and made by a moderator.');
   return { order: await orderDetail(await requestRefund(user, order, reason)) };
 });

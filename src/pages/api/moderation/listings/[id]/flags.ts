@@ -11,6 +11,10 @@ export const POST = endpoint(async (ctx) => {
   const flags = await readJson(ctx.request, FlagsSchema);
   const listing = await getListing(ctx.params.id!);
   if (!listing) throw notFound('No such listing.');
-  const updated = await flagListing(moderator, listing, { hazards: flags.hazards, exportControlled: flags.exportControlled, exportNote: flags.exportNote ?? null });
+  const updated = await flagListing(moderator, listing, {
+    hazards: flags.hazards,
+    exportControlled: flags.exportControlled,
+    exportNote: flags.exportNote ?? null,
+  });
   return { listing: ownerShape(updated) };
 });
