@@ -1,4 +1,5 @@
 import type { APIRequestContext, APIResponse, Browser, Page } from '@playwright/test';
+import { mirrorListing } from '../setup/listing-bodies';
 import { linkIn, waitForMail } from '../setup/mailbox';
 import { test, expect } from './fixtures';
 import { E2E_MAIL_DIR, E2E_ORIGIN } from './paths';
@@ -71,27 +72,7 @@ test('script and HTML in listing text, lab and display names, questions and repo
   await ok(page.request.post('/api/labs', { data: { name: labName, institute: `Institute ${IMG}`, country: 'NL' }, headers }), 201);
   const { id } = await ok(
     page.request.post('/api/listings', {
-      data: {
-        category: 'cavity-mirror',
-        title,
-        description,
-        condition: 'new',
-        quantity: 2,
-        priceCents: 50_000,
-        currency: 'EUR',
-        shipsTo: ['WORLD'],
-        specs: {
-          diameterMm: 7.75,
-          substrate: 'fused silica',
-          rocMm: 100,
-          designWavelengthNm: 852,
-          bandMinNm: 830,
-          bandMaxNm: 870,
-          transmissionPpm: { value: 3 },
-          lossPpm: { value: 2 },
-          aoiDeg: 0,
-        },
-      },
+      data: mirrorListing(title, { quantity: 2, priceCents: 50_000, description }),
       headers,
     }),
     201,

@@ -9,6 +9,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { Client, startTestApp, type TestApp } from '../setup/app';
+import { mirrorListing } from '../setup/listing-bodies';
 
 const PASSWORD = 'demo-password-1';
 const STOCK = 1000;
@@ -57,27 +58,8 @@ async function signedIn(origin: string, email: string, password: string): Promis
   return c;
 }
 
-const mirror = (title: string, quantity: number) => ({
-  category: 'cavity-mirror',
-  title,
-  description: 'Written while the backup runs.',
-  condition: 'new',
-  quantity,
-  priceCents: 1_000,
-  currency: 'EUR',
-  shipsTo: ['WORLD'],
-  specs: {
-    diameterMm: 7.75,
-    substrate: 'fused silica',
-    rocMm: 100,
-    designWavelengthNm: 852,
-    bandMinNm: 830,
-    bandMaxNm: 870,
-    transmissionPpm: { value: 3 },
-    lossPpm: { value: 2 },
-    aoiDeg: 0,
-  },
-});
+const mirror = (title: string, quantity: number) =>
+  mirrorListing(title, { quantity, priceCents: 1_000, description: 'Written while the backup runs.' });
 
 async function liveListing(quantity: number): Promise<string> {
   const seller = await signedIn(app.origin, 'seller2@demo.lightyard.example', PASSWORD);

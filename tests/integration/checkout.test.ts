@@ -2,6 +2,7 @@ import Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { Client, startTestApp, type TestApp } from '../setup/app';
 import { completeOnboarding, payWithCard, until } from '../setup/provider';
+import { mirrorListing } from '../setup/listing-bodies';
 
 const PASSWORD = 'demo-password-1';
 let app: TestApp;
@@ -30,27 +31,8 @@ async function newBuyer(i: number): Promise<Client> {
   return c;
 }
 
-const mirror = (quantity: number, title: string) => ({
-  category: 'cavity-mirror',
-  title,
-  description: 'For checkout tests.',
-  condition: 'new',
-  quantity,
-  priceCents: 100_000,
-  currency: 'EUR',
-  shipsTo: ['WORLD'],
-  specs: {
-    diameterMm: 7.75,
-    substrate: 'fused silica',
-    rocMm: 100,
-    designWavelengthNm: 852,
-    bandMinNm: 830,
-    bandMaxNm: 870,
-    transmissionPpm: { value: 3 },
-    lossPpm: { value: 2 },
-    aoiDeg: 0,
-  },
-});
+const mirror = (quantity: number, title: string) =>
+  mirrorListing(title, { quantity, priceCents: 100_000, description: 'For checkout tests.' });
 
 async function liveListing(quantity: number, title: string): Promise<string> {
   const seller = await as('seller2');

@@ -16,6 +16,7 @@ import { startS3Fake } from '../../fakes/s3/server';
 import { loopbackOrigins } from '../../fakes/start';
 import { startStripeFake } from '../../fakes/stripe/server';
 import { Client, freePort, startTestApp, type TestApp } from '../setup/app';
+import { mirrorListing } from '../setup/listing-bodies';
 import { mailTo, waitForMail } from '../setup/mailbox';
 import { until } from '../setup/provider';
 
@@ -135,27 +136,7 @@ async function newBuyer(): Promise<{ client: Client; id: string; email: string }
   return { client, id: String(row!.id), email };
 }
 
-const mirror = (quantity: number, title: string) => ({
-  category: 'cavity-mirror',
-  title,
-  description: 'For fault tests.',
-  condition: 'new',
-  quantity,
-  priceCents: 50_000,
-  currency: 'EUR',
-  shipsTo: ['WORLD'],
-  specs: {
-    diameterMm: 7.75,
-    substrate: 'fused silica',
-    rocMm: 100,
-    designWavelengthNm: 852,
-    bandMinNm: 830,
-    bandMaxNm: 870,
-    transmissionPpm: { value: 3 },
-    lossPpm: { value: 2 },
-    aoiDeg: 0,
-  },
-});
+const mirror = (quantity: number, title: string) => mirrorListing(title, { quantity, priceCents: 50_000, description: 'For fault tests.' });
 
 async function liveListing(quantity: number, title: string): Promise<string> {
   const seller = await as('seller2');

@@ -8,6 +8,7 @@ import sharp from 'sharp';
 import { Client, type TestApp } from './app';
 import { linkIn, waitForMail } from './mailbox';
 import { payWithCard, until } from './provider';
+import { mirrorListing } from './listing-bodies';
 
 export const ROLES = ['anonymous', 'unverified', 'buyer', 'memberA', 'ownerA', 'ownerB', 'moderator', 'admin'] as const;
 export type Role = (typeof ROLES)[number];
@@ -108,29 +109,7 @@ let counter = 0;
 /** Unique within a test file (each file has its own database). */
 export const unique = (prefix: string) => `${prefix}-${Date.now().toString(36)}-${(counter++).toString(36)}`;
 
-export function mirrorListing(title: string, quantity = 1) {
-  return {
-    category: 'cavity-mirror',
-    title,
-    description: 'For the access and input tests.',
-    condition: 'new',
-    quantity,
-    priceCents: 10_000,
-    currency: 'EUR',
-    shipsTo: ['WORLD'],
-    specs: {
-      diameterMm: 7.75,
-      substrate: 'fused silica',
-      rocMm: 100,
-      designWavelengthNm: 852,
-      bandMinNm: 830,
-      bandMaxNm: 870,
-      transmissionPpm: { value: 3 },
-      lossPpm: { value: 2 },
-      aoiDeg: 0,
-    },
-  };
-}
+export { mirrorListing } from './listing-bodies';
 
 export async function signedIn(app: TestApp, account: { email: string; password: string }): Promise<Client> {
   const c = new Client(app.origin);

@@ -1,52 +1,12 @@
-import { createServer } from 'node:http';
-import type { AddressInfo } from 'node:net';
 import Stripe from 'stripe';
-import { afterEach, beforeEach, describe, expect, test } from 'vitest';
-import { startStripeFake, type StripeFake, type StripeFakeOptions } from '../../../fakes/stripe/server';
-import { makeTempDir } from './temp-dir';
+import { describe, expect, test } from 'vitest';
+import { stripeFakeHarness, waitFor, type Delivery } from './stripe-harness';
 
 const KEY = 'sk_test_lightyard_checkout';
 const WEBHOOK_SECRET = 'whsec_checkout_test';
 const SHOP = 'http://127.0.0.1:4321';
 
-let temp: Awaited<ReturnType<typeof makeTempDir>>;
-let fake: StripeFake;
-let stopReceiver: (() => Promise<void>) | undefined;
-
-async function start(options: Partial<StripeFakeOptions> = {}): Promise<void> {
-  fake = await startStripeFake({ port: 0, dir: temp.dir, ...options });
-}
-
-function sdk(): Stripe {
-  return new Stripe(KEY, { host: '127.0.0.1', port: fake.port, protocol: 'http', maxNetworkRetries: 0 });
-}
-
-interface Delivery {
-  body: string;
-  signature: string;
-}
-
-/** Stands in for the app's webhook endpoint: answers 200 and keeps what it got. */
-async function startReceiver(): Promise<{ url: string; deliveries: Delivery[] }> {
-  const deliveries: Delivery[] = [];
-  const server = createServer(async (request, response) => {
-    const chunks: Buffer[] = [];
-    for await (const chunk of request) chunks.push(chunk as Buffer);
-    deliveries.push({ body: Buffer.concat(chunks).toString('utf8'), signature: String(request.headers['stripe-signature']) });
-    response.writeHead(200).end();
-  });
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  stopReceiver = () => new Promise((resolve) => server.close(() => resolve()));
-  return { url: `http://127.0.0.1:${(server.address() as AddressInfo).port}/api/webhooks/stripe`, deliveries };
-}
-
-async function waitFor(condition: () => boolean | Promise<boolean>, timeoutMs = 5_000): Promise<void> {
-  const deadline = Date.now() + timeoutMs;
-  while (!(await condition())) {
-    if (Date.now() > deadline) throw new Error('timed out waiting');
-    await new Promise((resolve) => setTimeout(resolve, 25));
-  }
-}
+const { fake, start, sdk, startReceiver } = stripeFakeHarness(KEY);
 
 function nowSeconds(): number {
   return Math.floor(Date.now() / 1000);
@@ -87,7 +47,7 @@ function card(number: string): Record<string, string> {
 }
 
 function payByTestRoute(sessionId: string, body: Record<string, unknown>): Promise<Response> {
-  return fetch(`${fake.url}/_fake/checkout/sessions/${sessionId}/pay`, {
+  return fetch(`${fake().url}/_fake/checkout/sessions/${sessionId}/pay`, {
     method: 'POST',
     headers: { 'Content-Type': 'application/json' },
     body: JSON.stringify(body),
@@ -102,17 +62,6 @@ async function paymentIntentOf(sessionId: string): Promise<Stripe.PaymentIntent>
 function typesOf(deliveries: Delivery[]): string[] {
   return deliveries.map((delivery) => (JSON.parse(delivery.body) as { type: string }).type);
 }
-
-beforeEach(async () => {
-  temp = await makeTempDir();
-});
-
-afterEach(async () => {
-  await fake.stop();
-  await stopReceiver?.();
-  stopReceiver = undefined;
-  await temp.remove();
-});
 
 describe('payments fake: checkout sessions and the hosted pay page', () => {
   test('creates a session in the provider shape, with its line items and a plain pay page', async () => {
@@ -129,7 +78,7 @@ describe('payments fake: checkout sessions and the hosted pay page', () => {
       client_reference_id: 'buyer_42',
       metadata: { order_ids: 'ord_1,ord_2' },
       payment_intent: null,
-      url: `${fake.url}/pay/${session.id}`,
+      url: `${fake().url}/pay/${session.id}`,
     });
     expect(session.id).toMatch(/^cs_test_[A-Za-z0-9]{58}$/);
     expect(Math.abs(session.created - nowSeconds())).toBeLessThanOrEqual(2);
@@ -240,8 +189,8 @@ describe('payments fake: checkout sessions and the hosted pay page', () => {
 
     const submitted = await submitForm(session.url ?? '', card('4000002500003155'));
     expect(submitted.status).toBe(303);
-    const authenticationUrl = `${fake.url}${submitted.headers.get('location')}`;
-    expect(authenticationUrl).toBe(`${fake.url}/pay/${session.id}/authenticate`);
+    const authenticationUrl = `${fake().url}${submitted.headers.get('location')}`;
+    expect(authenticationUrl).toBe(`${fake().url}/pay/${session.id}/authenticate`);
     const waiting = await paymentIntentOf(session.id);
     expect(waiting).toMatchObject({ status: 'requires_action', next_action: { type: 'redirect_to_url' } });
 
@@ -265,7 +214,7 @@ describe('payments fake: checkout sessions and the hosted pay page', () => {
     const session = await createSession();
     await submitForm(session.url ?? '', card('4000002500003155'));
 
-    const failed = await submitForm(`${fake.url}/pay/${session.id}/authenticate`, { result: 'fail' });
+    const failed = await submitForm(`${fake().url}/pay/${session.id}/authenticate`, { result: 'fail' });
     expect(failed.status).toBe(402);
     expect(await failed.text()).toContain('has failed authentication');
     expect((await sdk().checkout.sessions.retrieve(session.id)).status).toBe('open');
@@ -274,7 +223,7 @@ describe('payments fake: checkout sessions and the hosted pay page', () => {
     expect(paymentIntent.last_payment_error?.code).toBe('payment_intent_authentication_failure');
     expect((await sdk().events.list({ type: 'payment_intent.payment_failed' })).data).toHaveLength(1);
     // Nothing is waiting any more: the confirmation page sends the buyer back to the form.
-    const back = await fetch(`${fake.url}/pay/${session.id}/authenticate`, { redirect: 'manual' });
+    const back = await fetch(`${fake().url}/pay/${session.id}/authenticate`, { redirect: 'manual' });
     expect(back.status).toBe(303);
   });
 
@@ -351,7 +300,7 @@ describe('payments fake: session expiry', () => {
     await start();
     const session = await createSession({ expires_at: nowSeconds() + 1 });
     const kept = await createSession();
-    await fake.stop();
+    await fake().stop();
     await new Promise((resolve) => setTimeout(resolve, 1_600));
 
     await start();

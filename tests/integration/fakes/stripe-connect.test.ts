@@ -1,50 +1,19 @@
-import { createServer } from 'node:http';
-import type { AddressInfo } from 'node:net';
 import Stripe from 'stripe';
-import { afterEach, beforeEach, describe, expect, test } from 'vitest';
-import { FAILING_PAYOUT_AMOUNT, startStripeFake, type StripeFake, type StripeFakeOptions } from '../../../fakes/stripe/server';
-import { makeTempDir } from './temp-dir';
+import { describe, expect, test } from 'vitest';
+import { FAILING_PAYOUT_AMOUNT } from '../../../fakes/stripe/server';
+import { stripeFakeHarness, waitFor } from './stripe-harness';
 
 const KEY = 'sk_test_lightyard_connect';
 const WEBHOOK_SECRET = 'whsec_connect_test';
 const APP = 'http://127.0.0.1:4321';
 
-let temp: Awaited<ReturnType<typeof makeTempDir>>;
-let fake: StripeFake;
-let stopReceiver: (() => Promise<void>) | undefined;
+const harness = stripeFakeHarness(KEY);
+const { fake, start, sdk } = harness;
 
-async function start(options: Partial<StripeFakeOptions> = {}): Promise<void> {
-  fake = await startStripeFake({ port: 0, dir: temp.dir, ...options });
-}
-
-function sdk(): Stripe {
-  return new Stripe(KEY, { host: '127.0.0.1', port: fake.port, protocol: 'http', maxNetworkRetries: 0 });
-}
-
-/** Stands in for the app's webhook endpoint: answers 200 and keeps the signed bodies. */
+/** The app's webhook endpoint stand-in; every delivery must pass the SDK's signature check, or events() throws. */
 async function startReceiver(): Promise<{ url: string; events: () => Stripe.Event[] }> {
-  const deliveries: { body: string; signature: string }[] = [];
-  const server = createServer(async (request, response) => {
-    const chunks: Buffer[] = [];
-    for await (const chunk of request) chunks.push(chunk as Buffer);
-    deliveries.push({ body: Buffer.concat(chunks).toString('utf8'), signature: String(request.headers['stripe-signature']) });
-    response.writeHead(200).end();
-  });
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  stopReceiver = () => new Promise((resolve) => server.close(() => resolve()));
-  return {
-    url: `http://127.0.0.1:${(server.address() as AddressInfo).port}/api/webhooks/stripe`,
-    // Every delivery passes the SDK's signature check, or this throws.
-    events: () => deliveries.map(({ body, signature }) => sdk().webhooks.constructEvent(body, signature, WEBHOOK_SECRET)),
-  };
-}
-
-async function waitFor(condition: () => boolean | Promise<boolean>, timeoutMs = 5_000): Promise<void> {
-  const deadline = Date.now() + timeoutMs;
-  while (!(await condition())) {
-    if (Date.now() > deadline) throw new Error('timed out waiting');
-    await new Promise((resolve) => setTimeout(resolve, 25));
-  }
+  const { url, deliveries } = await harness.startReceiver();
+  return { url, events: () => deliveries.map(({ body, signature }) => sdk().webhooks.constructEvent(body, signature, WEBHOOK_SECRET)) };
 }
 
 /** A checkout for `amount` paid with the succeeding card; its PaymentIntent. */
@@ -55,7 +24,7 @@ async function paidPaymentIntent(amount: number): Promise<Stripe.PaymentIntent> 
     success_url: `${APP}/paid`,
     payment_intent_data: { transfer_group: 'order_7' },
   });
-  const response = await fetch(`${fake.url}/_fake/checkout/sessions/${session.id}/pay`, {
+  const response = await fetch(`${fake().url}/_fake/checkout/sessions/${session.id}/pay`, {
     method: 'POST',
     headers: { 'Content-Type': 'application/json' },
     body: JSON.stringify({ card: '4242424242424242' }),
@@ -95,17 +64,6 @@ async function onboardedAccount(): Promise<Stripe.Account> {
 function eur(amount: number) {
   return [{ amount, currency: 'eur', source_types: { card: amount } }];
 }
-
-beforeEach(async () => {
-  temp = await makeTempDir();
-});
-
-afterEach(async () => {
-  await fake.stop();
-  await stopReceiver?.();
-  stopReceiver = undefined;
-  await temp.remove();
-});
 
 describe('payments fake: refunds', () => {
   test('refunds in part and then in full, updating the charge, with refund.created and charge.refunded', async () => {
@@ -211,7 +169,7 @@ describe('payments fake: connected accounts', () => {
 
     const link = await accountLink(account.id);
     expect(link).toMatchObject({ object: 'account_link', expires_at: link.created + 300 });
-    expect(link.url).toMatch(new RegExp(`^${fake.url}/onboard/[A-Za-z0-9]{32}$`));
+    expect(link.url).toMatch(new RegExp(`^${fake().url}/onboard/[A-Za-z0-9]{32}$`));
     const page = await fetch(link.url);
     expect(page.status).toBe(200);
     const markup = await page.text();
@@ -423,7 +381,7 @@ describe('payments fake: payouts', () => {
     await start({ payoutDelayMs: 400 });
     const account = await fundedAccount(8_000);
     const payout = await sdk().payouts.create({ amount: 8_000, currency: 'eur' }, { stripeAccount: account.id });
-    await fake.stop();
+    await fake().stop();
     await new Promise((resolve) => setTimeout(resolve, 600));
 
     await start({ payoutDelayMs: 400 });

@@ -1,27 +1,14 @@
-import { createServer, type Server } from 'node:http';
-import type { AddressInfo } from 'node:net';
 import Stripe from 'stripe';
-import { afterEach, beforeEach, describe, expect, test } from 'vitest';
-import { startStripeFake, type StripeFake, type StripeFakeOptions } from '../../../fakes/stripe/server';
-import { makeTempDir } from './temp-dir';
+import { beforeEach, describe, expect, test } from 'vitest';
+import { stripeFakeHarness, waitFor } from './stripe-harness';
 
 const KEY = 'sk_test_lightyard_fake';
 const WEBHOOK_SECRET = 'whsec_test_secret';
 
-let temp: Awaited<ReturnType<typeof makeTempDir>>;
-let fake: StripeFake;
-let stopReceiver: (() => Promise<void>) | undefined;
-
-async function start(options: Partial<StripeFakeOptions> = {}): Promise<void> {
-  fake = await startStripeFake({ port: 0, dir: temp.dir, ...options });
-}
-
-function sdk(key = KEY): Stripe {
-  return new Stripe(key, { host: '127.0.0.1', port: fake.port, protocol: 'http', maxNetworkRetries: 0 });
-}
+const { fake, start, sdk, startReceiver } = stripeFakeHarness(KEY);
 
 function fakeUrl(path: string): string {
-  return `http://127.0.0.1:${fake.port}${path}`;
+  return `http://127.0.0.1:${fake().port}${path}`;
 }
 
 function triggerEvent(body: unknown, headers: Record<string, string> = {}): Promise<Response> {
@@ -31,47 +18,6 @@ function triggerEvent(body: unknown, headers: Record<string, string> = {}): Prom
     body: JSON.stringify(body),
   });
 }
-
-interface Delivery {
-  body: string;
-  signature: string;
-}
-
-/** A stand-in for the app's webhook endpoint that fails the first `failures` deliveries. */
-async function startReceiver(failures: number): Promise<{ url: string; deliveries: Delivery[] }> {
-  const deliveries: Delivery[] = [];
-  const server: Server = createServer(async (request, response) => {
-    const chunks: Buffer[] = [];
-    for await (const chunk of request) chunks.push(chunk as Buffer);
-    deliveries.push({
-      body: Buffer.concat(chunks).toString('utf8'),
-      signature: String(request.headers['stripe-signature']),
-    });
-    response.writeHead(deliveries.length <= failures ? 500 : 200).end();
-  });
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  stopReceiver = () => new Promise((resolve) => server.close(() => resolve()));
-  return { url: `http://127.0.0.1:${(server.address() as AddressInfo).port}/api/webhooks/stripe`, deliveries };
-}
-
-async function waitFor(condition: () => boolean | Promise<boolean>, timeoutMs = 5_000): Promise<void> {
-  const deadline = Date.now() + timeoutMs;
-  while (!(await condition())) {
-    if (Date.now() > deadline) throw new Error('timed out waiting');
-    await new Promise((resolve) => setTimeout(resolve, 20));
-  }
-}
-
-beforeEach(async () => {
-  temp = await makeTempDir();
-});
-
-afterEach(async () => {
-  await fake.stop();
-  await stopReceiver?.();
-  stopReceiver = undefined;
-  await temp.remove();
-});
 
 describe('payments fake: API basics through the SDK', () => {
   beforeEach(() => start());
@@ -182,7 +128,7 @@ describe('payments fake: events, webhooks and idempotency', () => {
     const created = await sdk().events.list({ type: 'payout.created' });
     expect(created.data.map((event) => event.id)).toEqual([ids[2], ids[0]]);
 
-    await fake.stop();
+    await fake().stop();
     await start();
     expect((await sdk().events.retrieve(ids[0]!)).type).toBe('payout.created');
   });
