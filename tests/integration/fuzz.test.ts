@@ -399,6 +399,29 @@ describe('body limits, route by route', () => {
     expect(res.status).toBe(431);
   });
 
+  test('POST /unsubscribe (a page form): 413 over 8 KiB, declared or streamed, 415 for JSON; nothing stopped', async () => {
+    const form = { 'content-type': 'application/x-www-form-urlencoded', origin: app.origin };
+    const big = `token=${'z'.repeat(43)}&pad=${'x'.repeat(9 * 1024)}`;
+    expect((await fetch(`${app.origin}/unsubscribe`, { method: 'POST', headers: form, body: big })).status).toBe(413);
+    const streamedBig = await fetch(`${app.origin}/unsubscribe`, {
+      method: 'POST',
+      headers: form,
+      body: streamed(big),
+      duplex: 'half',
+    } as RequestInit);
+    expect(streamedBig.status).toBe(413);
+    expect(await streamedBig.text()).toContain('larger than 8 KiB');
+    const json = await fetch(`${app.origin}/unsubscribe`, {
+      method: 'POST',
+      headers: { ...form, 'content-type': 'application/json' },
+      body: JSON.stringify({ token: 'z'.repeat(43) }),
+    });
+    expect(json.status).toBe(415);
+    const fine = await fetch(`${app.origin}/unsubscribe`, { method: 'POST', headers: form, body: `token=${'z'.repeat(43)}` });
+    expect(fine.status).toBe(200);
+    expect(await fine.text()).toContain('This link does not stop any saved search');
+  });
+
   // The webhook reads the raw body to check its signature: its own limit, and 400 for anything unsigned.
   for (const e of rawRoutes) {
     test(`${e.key}: 413 over its limit, 400 for malformed or unsigned bodies of any type`, async () => {

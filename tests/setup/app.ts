@@ -3,7 +3,7 @@
  * migrated from drizzle/ and seeded by the demo factories, and the built server as a child process.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { appendFileSync, mkdtempSync, rmSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -97,8 +97,13 @@ export async function startTestApp(
   let child: ChildProcess;
   const launch = async () => {
     child = spawn(process.execPath, ['dist/server/entry.mjs'], { env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
-    child.stdout!.on('data', (d) => (output += d));
-    child.stderr!.on('data', (d) => (output += d));
+    const keep = (d: Buffer) => {
+      output += d;
+      // TEST_APP_LOG=<file> also appends the app's output there, for a run that hangs or fails late
+      if (process.env.TEST_APP_LOG) appendFileSync(process.env.TEST_APP_LOG, d);
+    };
+    child.stdout!.on('data', keep);
+    child.stderr!.on('data', keep);
     await waitUntilUp(origin, child, () => output);
   };
   const kill = async (signal: NodeJS.Signals = 'SIGKILL') => {

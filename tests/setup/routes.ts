@@ -69,7 +69,7 @@ function handlersOf(source: string): RouteHandler[] {
       return {
         method: e.name,
         readsJson: /\breadJson\(/.test(block),
-        readsRawBody: /\brequest\.(text|json|arrayBuffer|blob|formData)\(/.test(block),
+        readsRawBody: /\b(request\.(text|json|arrayBuffer|blob|formData)|readLimited)\(/.test(block),
       };
     });
 }

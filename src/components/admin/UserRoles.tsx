@@ -22,6 +22,8 @@ interface UserRow {
 }
 
 const col = createColumnHelper<UserRow>();
+/** The table needs the same array while loading: a fresh [] on each render keeps it recomputing and can hang the page. */
+const NO_USERS: UserRow[] = [];
 
 function RoleToggle({ user, role }: { user: UserRow; role: RoleName }) {
   const qc = useQueryClient();
@@ -93,7 +95,7 @@ function Roles() {
     [],
   );
   const table = useReactTable({
-    data: users.data?.users ?? [],
+    data: users.data?.users ?? NO_USERS,
     columns,
     state: { sorting },
     onSortingChange: setSorting,

@@ -3,7 +3,8 @@ import { HttpError, type FieldErrors } from './errors';
 
 export const MAX_JSON_BYTES = 64 * 1024;
 
-async function readLimited(request: Request, limit: number): Promise<string> {
+/** The body as text, refused with 413 as soon as it passes `limit` bytes (declared or streamed). */
+export async function readLimited(request: Request, limit: number): Promise<string> {
   const declared = Number(request.headers.get('content-length') ?? '0');
   if (declared > limit) throw tooLarge(limit);
   if (!request.body) return '';
@@ -58,6 +59,17 @@ export function parseWith<T>(schema: ZodType<T, ZodTypeDef, unknown>, raw: unkno
     throw new HttpError(400, 'validation_failed', 'Some fields need attention.', zodFieldErrors(result.error.issues));
   }
   return result.data;
+}
+
+export const MAX_FORM_BYTES = 8 * 1024;
+
+/** Reads a small urlencoded form (a page's own POST) within a limit; 415 for another type. */
+export async function readForm(request: Request, limit = MAX_FORM_BYTES): Promise<URLSearchParams> {
+  const type = request.headers.get('content-type') ?? '';
+  if (!/^application\/x-www-form-urlencoded\b/i.test(type)) {
+    throw new HttpError(415, 'unsupported_media_type', 'Send the form as application/x-www-form-urlencoded.');
+  }
+  return new URLSearchParams(await readLimited(request, limit));
 }
 
 export function readQuery<T>(url: URL, schema: ZodType<T, ZodTypeDef, unknown>): T {
