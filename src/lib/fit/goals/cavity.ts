@@ -53,9 +53,15 @@ export function modeRadius(rocM: number | null): number {
   return rocM ?? Infinity;
 }
 
-function fromTotals(source: MirrorAtWavelength['source'], t: Spread, a: Spread, rocM: number | null, field: string): MirrorAtWavelength {
+/** A mirror reading from its T and loss spreads (ppm); null when T + loss is not below 1e6 ppm. The search shares it. */
+export function readingFromTotals(
+  source: MirrorAtWavelength['source'],
+  t: Spread,
+  a: Spread,
+  rocM: number | null,
+): MirrorAtWavelength | null {
   const total = t.nominal + a.nominal;
-  if (!(total < 1e6)) throw new FitInputError(`${field}.transmissionPpm`, 'T + loss must be below 1e6 ppm');
+  if (!(total < 1e6)) return null;
   return {
     source,
     transmissionPpm: t.nominal,
@@ -65,6 +71,12 @@ function fromTotals(source: MirrorAtWavelength['source'], t: Spread, a: Spread, 
     totalBestPpm: t.low + a.low,
     rocM,
   };
+}
+
+function fromTotals(source: MirrorAtWavelength['source'], t: Spread, a: Spread, rocM: number | null, field: string): MirrorAtWavelength {
+  const reading = readingFromTotals(source, t, a, rocM);
+  if (!reading) throw new FitInputError(`${field}.transmissionPpm`, 'T + loss must be below 1e6 ppm');
+  return reading;
 }
 
 function spectrumRange(points: readonly { wavelengthNm: number }[]): string {

@@ -19,6 +19,7 @@ import {
   type PhotodiodeSpec,
   type SinglePhotonDetectorSpec,
 } from '../../../lib/fit';
+import { readingFromTotals } from '../../../lib/fit/goals/cavity';
 import { exact, nearWavelength, readCurve, spread, type Spread } from '../../../lib/fit/goals/spec';
 import { nonNegative } from '../../../lib/fit/validate';
 import type { SearchDoc } from '../documents';
@@ -76,20 +77,7 @@ interface MeasuredMirror {
   ringdownPpm: number;
 }
 
-/** mirrorAtWavelength's fromTotals. */
-function fromTotals(source: MirrorAtWavelength['source'], t: Spread, a: Spread, rocM: number | null): MirrorAtWavelength | null {
-  const total = t.nominal + a.nominal;
-  if (!(total < 1e6)) return null;
-  return {
-    source,
-    transmissionPpm: t.nominal,
-    lossPpm: a.nominal,
-    totalPpm: total,
-    totalWorstPpm: Math.min(t.high + a.high, 999_999),
-    totalBestPpm: t.low + a.low,
-    rocM,
-  };
-}
+const fromTotals = readingFromTotals;
 
 function readMeasurements(spec: MirrorSpec, rocM: number | null): MeasuredMirror {
   const points = spec.spectrum?.points;
