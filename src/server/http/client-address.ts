@@ -13,3 +13,8 @@ export function clientAddress(ctx: Pick<APIContext, 'request' | 'clientAddress'>
     return 'unknown';
   }
 }
+
+/** A socket address of this machine's loopback interface (IPv4, IPv6 or IPv4-mapped IPv6). */
+export function isLoopbackAddress(address: string): boolean {
+  return /^(127\.\d{1,3}\.\d{1,3}\.\d{1,3}|::1|::ffff:127\.\d{1,3}\.\d{1,3}\.\d{1,3})$/i.test(address);
+}
