@@ -76,7 +76,8 @@ export function cooperativity(input: { finesse: number; wavelengthM: number; wai
   const w0 = positive('waistM', input.waistM);
   const kw = finiteResult('waistM', ((2 * Math.PI) / lambda) * w0, 'k·w0');
   const c1 = finiteResult('finesse', (12 * f) / (Math.PI * kw * kw), 'cooperativity');
-  return { c1, eta: 2 * c1 };
+  // η = 2·C1 can still leave the doubles when C1 is within a factor 2 of the largest one
+  return { c1, eta: finiteResult('finesse', 2 * c1, 'cooperativity') };
 }
 
 /** Forms 4.3–4.8 for a standing-wave cavity in vacuum and a two-level cycling transition. */

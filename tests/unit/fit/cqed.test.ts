@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { cooperativity, cqed, cqedFromRates, freeSpectralRange } from '../../../src/lib/fit';
+import { cooperativity, cqed, cqedFromRates, FitInputError, freeSpectralRange } from '../../../src/lib/fit';
 import { expectAbs, expectRel } from './helpers';
 
 describe('physics.md A4 check values (cavity QED; Kimble, Phys. Scr. T76, 127 (1998) [M]; Tanji-Suzuki et al., Adv. At. Mol. Opt. Phys. 60, 201 (2011))', () => {
@@ -59,5 +59,11 @@ describe('physics.md A4 check values (cavity QED; Kimble, Phys. Scr. T76, 127 (1
     expectRel(q.eta, 2 * q.c1, 1e-12);
     expectRel(q.N0, 1 / q.c1, 1e-12);
     expectRel(q.beta, q.eta / (1 + q.eta), 1e-12);
+  });
+
+  test('a C1 within a factor 2 of the largest double is refused, not an infinite η (found by the finite-output property)', () => {
+    // k·w0 = 0.5 and ℱ = 1e307: C1 = 12ℱ/(π·0.25) ≈ 1.5e308 is finite, 2·C1 is not
+    expect(() => cooperativity({ finesse: 1e307, wavelengthM: 1e-6, waistM: 0.5e-6 / (2 * Math.PI) })).toThrow(FitInputError);
+    expect(Number.isFinite(cooperativity({ finesse: 1e300, wavelengthM: 1e-6, waistM: 0.5e-6 / (2 * Math.PI) }).eta)).toBe(true);
   });
 });
