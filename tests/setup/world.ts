@@ -173,23 +173,9 @@ export async function buildWorld(app: TestApp): Promise<World> {
   const png = await sharp({ create: { width: 32, height: 24, channels: 3, background: '#1f6f8b' } })
     .png()
     .toBuffer();
-  const pendingUpload = async (listing: string) =>
-    String(
-      (
-        await expectStatus(
-          await client.ownerA.post(`/api/listings/${listing}/uploads`, {
-            kind: 'photo',
-            filename: 'part.png',
-            contentType: 'image/png',
-            size: png.byteLength,
-          }),
-          201,
-          `an upload to ${listing}`,
-        )
-      ).fileId,
-    );
-  const uploadedFile = async (listing: string) => {
-    const created = await expectStatus(
+  /** A photo upload announced for the listing (the PUT not yet made). */
+  const announceUpload = async (listing: string) =>
+    expectStatus(
       await client.ownerA.post(`/api/listings/${listing}/uploads`, {
         kind: 'photo',
         filename: 'part.png',
@@ -199,6 +185,9 @@ export async function buildWorld(app: TestApp): Promise<World> {
       201,
       `an upload to ${listing}`,
     );
+  const pendingUpload = async (listing: string) => String((await announceUpload(listing)).fileId);
+  const uploadedFile = async (listing: string) => {
+    const created = await announceUpload(listing);
     const put = await fetch(String(created.uploadUrl), {
       method: 'PUT',
       headers: { 'content-type': 'image/png' },

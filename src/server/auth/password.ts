@@ -1,28 +1,13 @@
 import { availableParallelism } from 'node:os';
 import { hash, verify } from '@node-rs/argon2';
+import { fifoLimiter } from '../turns';
 
 // argon2id with the OWASP password-storage minimums (19 MiB, 2 passes, 1 lane): about 30 ms here.
 const OPTIONS = { algorithm: 2, memoryCost: 19456, timeCost: 2, parallelism: 1, outputLen: 32 } as const;
 
-/**
- * Hashing is CPU-bound: at most one per core runs at once, and the rest wait in arrival order, so that
- * under a burst of sign-ins each waits its turn instead of some waiting many times longer than others.
- */
-const SLOTS = Math.max(1, availableParallelism());
-let running = 0;
-const waiting: (() => void)[] = [];
-
-async function inTurn<T>(work: () => Promise<T>): Promise<T> {
-  if (running >= SLOTS) await new Promise<void>((resolve) => waiting.push(resolve));
-  else running++;
-  try {
-    return await work();
-  } finally {
-    const next = waiting.shift();
-    if (next) next();
-    else running--;
-  }
-}
+// Hashing is CPU-bound: one per core at a time, the rest in arrival order, so that under a burst of
+// sign-ins each waits its turn instead of some waiting many times longer than others.
+const inTurn = fifoLimiter(Math.max(1, availableParallelism()));
 
 export function hashPassword(password: string): Promise<string> {
   return inTurn(() => hash(password, OPTIONS));

@@ -68,19 +68,8 @@ export interface TextHit {
   score: number;
 }
 
-/** Index of the first element ≥ x in a sorted array. */
-function lowerBound(a: readonly number[], x: number): number {
-  let lo = 0;
-  let hi = a.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (a[mid]! < x) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo;
-}
-
-function lowerBoundString(a: readonly string[], x: string): number {
+/** Index of the first element ≥ x in a sorted array (numbers, or strings in code-unit order). */
+function lowerBound<T extends number | string>(a: readonly T[], x: T): number {
   let lo = 0;
   let hi = a.length;
   while (lo < hi) {
@@ -139,7 +128,7 @@ export class TextIndex {
     for (const w of this.wordsAt[ordinal] ?? []) {
       const list = this.postings.get(w);
       if (!list) continue;
-      const i = lowerBound(list, ordinal);
+      const i: number = lowerBound(list, ordinal);
       if (list[i] === ordinal) list.splice(i, 1);
       if (list.length === 0) {
         this.postings.delete(w);
@@ -159,7 +148,7 @@ export class TextIndex {
     this.vocabulary ??= [...this.postings.keys()].sort();
     const v = this.vocabulary;
     const lists: number[][] = [];
-    for (let i = lowerBoundString(v, term); i < v.length && v[i]!.startsWith(term); i++) lists.push(this.postings.get(v[i]!)!);
+    for (let i = lowerBound(v, term); i < v.length && v[i]!.startsWith(term); i++) lists.push(this.postings.get(v[i]!)!);
     return lists.length === 0 ? [] : union(lists);
   }
 

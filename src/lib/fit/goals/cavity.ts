@@ -240,7 +240,8 @@ export function parseCavityGoal(goal: CavityGoal): ParsedCavityGoal {
   return { lambdaNm, lengthM, target, extraLoss, fsrHz, goalFinesse, atom };
 }
 
-function finesseOf(loss1Ppm: number, loss2Ppm: number, extraLoss: number): number | null {
+/** Form 1.3 from the two mirrors' T + loss (ppm) and the extra loss; null when nothing is lost. The search shares it. */
+export function finesseOf(loss1Ppm: number, loss2Ppm: number, extraLoss: number): number | null {
   // below this the finesse (≈ 2π / total loss) leaves the doubles: as good as lossless
   if (loss1Ppm * PPM + loss2Ppm * PPM + extraLoss < NO_LOSS) return null;
   return finesseFromMirrorLosses({ loss1: loss1Ppm * PPM, loss2: loss2Ppm * PPM, extraLoss });

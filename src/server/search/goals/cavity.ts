@@ -11,7 +11,6 @@ import {
   bestPairs,
   cavityLinewidth,
   evaluateCavityGoal,
-  finesseFromMirrorLosses,
   FitInputError,
   gaussianMode,
   requiredReflectivity,
@@ -23,7 +22,7 @@ import {
   type MirrorAtWavelength,
   type MirrorSpec,
 } from '../../../lib/fit';
-import { modeRadius, parseCavityGoal } from '../../../lib/fit/goals/cavity';
+import { finesseOf, modeRadius, parseCavityGoal } from '../../../lib/fit/goals/cavity';
 import { headroomOf, verdictOf, type Better } from '../../../lib/fit/goals/verdict';
 import type { CavitySearchGoal } from '../../../lib/schemas/search';
 import type { Headline, PlotData } from '../../../lib/search/results';
@@ -34,8 +33,6 @@ import { BLOCKED, unreadable, VERDICT_RANK, type RankKey } from './rank';
 export type MirrorPrep = Extract<Prepared, { kind: 'mirror' }>;
 
 const PPM = 1e-6;
-/** A total round-trip loss under which the cavity counts as lossless (its finesse would overflow). */
-const NO_LOSS = 1e-300;
 const BETTER: Record<CavityTarget['kind'], Better> = { finesse: 'higher', linewidth: 'lower', 'storage-time': 'higher' };
 const UNIT: Record<CavityTarget['kind'], string> = { finesse: '', linewidth: 'Hz', 'storage-time': 's' };
 const LABEL: Record<CavityTarget['kind'], string> = {
@@ -132,13 +129,6 @@ export function cavityQuery(goal: CavityGoal): CavityQuery {
       return s;
     },
   };
-}
-
-/** Form 1.3 from the two mirrors' T + loss (ppm) and the extra loss, as evaluateCavityGoal computes it; null when nothing is lost. */
-function finesseOf(loss1Ppm: number, loss2Ppm: number, extraLoss: number): number | null {
-  // below this the finesse (≈ 2π / total loss) leaves the doubles: as good as lossless
-  if (loss1Ppm * PPM + loss2Ppm * PPM + extraLoss < NO_LOSS) return null;
-  return finesseFromMirrorLosses({ loss1: loss1Ppm * PPM, loss2: loss2Ppm * PPM, extraLoss });
 }
 
 function figureOf(q: CavityQuery, f: number): number {
